@@ -1,0 +1,9 @@
+import { z } from 'zod';
+
+export const healthSchema = z.object({
+  status: z.enum(['ok', 'degraded']),
+  database: z.enum(['ok', 'unavailable']),
+  version: z.string(),
+});
+
+export type Health = z.infer<typeof healthSchema>;

@@ -1,0 +1,3 @@
+import { createLogger } from '../../server/logger.ts';
+
+export const quietLogger = () => createLogger('silent');
