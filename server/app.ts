@@ -2,16 +2,32 @@ import { randomUUID } from 'node:crypto';
 import { existsSync } from 'node:fs';
 import path from 'node:path';
 import express, { type Express } from 'express';
+import helmet from 'helmet';
 import { pinoHttp } from 'pino-http';
+import { auditRoutes } from './audit/audit.routes.ts';
+import { csrfGuard } from './auth/csrf.ts';
+import { loadCurrentUser, oidcRelyingParty, type OidcSettings } from './auth/oidc.ts';
 import type { Db } from './db/connect.ts';
 import { errorMiddleware, notFound } from './http/error-middleware.ts';
 import { healthRoutes } from './http/health.routes.ts';
-import type { Logger } from './logger.ts';
+import { invitationAcceptRoutes, organisationInvitationRoutes } from './invitations/invitations.routes.ts';
+import { logRequest, type Logger } from './logger.ts';
+import { devMailRoutes } from './mail/dev-mail.routes.ts';
+import type { Mailer } from './mail/mailer.ts';
+import type { SmtpStandIn } from './mail/smtp-standin.ts';
+import { accountRoutes, organisationRoutes } from './organisations/organisations.routes.ts';
+import { siteRoutes } from './sites/sites.routes.ts';
 
 export interface AppDeps {
   db: Db;
   logger: Logger;
   version: string;
+  /** Public base URL of the app, e.g. http://127.0.0.1:3000. */
+  appBaseUrl: string;
+  oidc: Omit<OidcSettings, 'appBaseUrl'>;
+  mailer: Mailer;
+  /** Development only: show the mail caught by the local SMTP stand-in. */
+  devMail?: SmtpStandIn;
   /** Folder of the built client; served with a fallback to index.html for client routes. */
   clientDir?: string;
 }
@@ -20,6 +36,7 @@ const REQUEST_ID = /^[A-Za-z0-9._-]{1,64}$/;
 
 export function createApp(deps: AppDeps): Express {
   const app = express();
+  const secure = deps.appBaseUrl.startsWith('https://');
   app.disable('x-powered-by');
   app.set('trust proxy', 'loopback');
 
@@ -32,13 +49,42 @@ export function createApp(deps: AppDeps): Express {
         res.setHeader('X-Request-Id', id);
         return id;
       },
+      serializers: { req: logRequest },
       customLogLevel: (_req, res, error) => (error || res.statusCode >= 500 ? 'error' : res.statusCode >= 400 ? 'warn' : 'info'),
     }),
   );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        directives: {
+          'default-src': ["'self'"],
+          'img-src': ["'self'", 'data:'],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'connect-src': ["'self'"],
+          'worker-src': ["'self'", 'blob:'],
+          'frame-ancestors': ["'none'"],
+          'form-action': ["'self'"],
+          'upgrade-insecure-requests': secure ? [] : null,
+        },
+      },
+      strictTransportSecurity: secure,
+    }),
+  );
+
+  app.use(oidcRelyingParty(deps.db, { ...deps.oidc, appBaseUrl: deps.appBaseUrl }));
+  if (deps.devMail) app.use(devMailRoutes(deps.devMail));
 
   const api = express.Router();
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRoutes(deps.db, deps.version));
+  api.use(loadCurrentUser(deps.db));
+  api.use(csrfGuard(new URL(deps.appBaseUrl).origin));
+  api.use(accountRoutes(deps.db));
+  api.use('/invitations', invitationAcceptRoutes(deps.db));
+  api.use('/orgs/:orgId', organisationRoutes(deps.db));
+  api.use('/orgs/:orgId/sites', siteRoutes(deps.db));
+  api.use('/orgs/:orgId/invitations', organisationInvitationRoutes({ db: deps.db, mailer: deps.mailer, appBaseUrl: deps.appBaseUrl }));
+  api.use('/orgs/:orgId/audit', auditRoutes(deps.db));
   api.use(notFound);
   app.use('/api', api);
 

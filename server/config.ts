@@ -17,10 +17,38 @@ const configSchema = z.object({
   PLANKTIDE_DATA_DIR: z.string().min(1).default('.data'),
   PLANKTIDE_PG_PORT: port.default(54329),
   PLANKTIDE_CLIENT: z.enum(['built', 'none']).default('built'),
+  APP_BASE_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
+  OIDC_ISSUER_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
+  OIDC_CLIENT_ID: z.string().min(1).default('planktide-web'),
+  OIDC_CLIENT_SECRET: z.string().min(16, 'must be at least 16 characters').optional(),
+  OIDC_STANDIN_PORT: port.default(3001),
+  SESSION_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
+  SMTP_URL: z.url({ protocol: /^smtps?$/, error: 'must be an smtp:// or smtps:// URL' }).optional(),
+  SMTP_STANDIN_PORT: port.default(2525),
+  MAIL_FROM: z.string().min(3).default('Planktide <no-reply@planktide.invalid>'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
-export type Config = z.infer<typeof configSchema> & { projectRoot: string };
+type ParsedConfig = z.infer<typeof configSchema>;
+
+export type Config = Omit<ParsedConfig, 'APP_BASE_URL' | 'OIDC_CLIENT_SECRET' | 'SESSION_SECRET'> & {
+  projectRoot: string;
+  APP_BASE_URL: string;
+  OIDC_CLIENT_SECRET: string;
+  SESSION_SECRET: string;
+};
+
+// Development-only defaults: a production start must set its own secrets.
+const DEV_CLIENT_SECRET = 'planktide-local-client-secret';
+const DEV_SESSION_SECRET = 'planktide-local-session-secret-not-for-production';
+
+function productionProblems(parsed: ParsedConfig): string[] {
+  if (parsed.NODE_ENV !== 'production') return [];
+  const problems: string[] = [];
+  if (!parsed.SESSION_SECRET) problems.push('SESSION_SECRET: must be set in production (at least 32 random characters)');
+  if (parsed.OIDC_ISSUER_URL && !parsed.OIDC_CLIENT_SECRET) problems.push('OIDC_CLIENT_SECRET: must be set when OIDC_ISSUER_URL is set in production');
+  return problems;
+}
 
 export class ConfigError extends Error {
   constructor(readonly problems: string[]) {
@@ -42,5 +70,15 @@ export function parseConfig(env: Record<string, string | undefined>, projectRoot
     });
     throw new ConfigError(problems);
   }
-  return { ...result.data, projectRoot, PLANKTIDE_DATA_DIR: path.resolve(projectRoot, result.data.PLANKTIDE_DATA_DIR) };
+  const parsed = result.data;
+  const problems = productionProblems(parsed);
+  if (problems.length) throw new ConfigError(problems);
+  return {
+    ...parsed,
+    projectRoot,
+    PLANKTIDE_DATA_DIR: path.resolve(projectRoot, parsed.PLANKTIDE_DATA_DIR),
+    APP_BASE_URL: (parsed.APP_BASE_URL ?? `http://${parsed.HOST}:${parsed.PORT}`).replace(/\/$/, ''),
+    OIDC_CLIENT_SECRET: parsed.OIDC_CLIENT_SECRET ?? DEV_CLIENT_SECRET,
+    SESSION_SECRET: parsed.SESSION_SECRET ?? DEV_SESSION_SECRET,
+  };
 }

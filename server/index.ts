@@ -2,13 +2,18 @@ import type { Server } from 'node:http';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { createApp } from './app.ts';
+import { PostgresSessionStore } from './auth/session-store.ts';
 import { clientDir, ensureClientBuilt } from './client-build.ts';
 import { ConfigError, parseConfig, type Config } from './config.ts';
 import { createDb, type Db } from './db/connect.ts';
 import { migrateToLatest } from './db/migrate.ts';
 import { createLogger } from './logger.ts';
 import { openDatabase, type DatabaseHandle } from './postgres/local-database.ts';
-import { DEMO_PEOPLE, seedDemoWhenEmpty } from './seed/demo-organisation.ts';
+import { startIdentityStandIn, type RunningIdentityStandIn } from './identity-standin/start.ts';
+import { seedStandInAccounts } from './identity-standin/accounts.ts';
+import { createMailer, type Mailer } from './mail/mailer.ts';
+import { startSmtpStandIn, type SmtpStandIn } from './mail/smtp-standin.ts';
+import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemoWhenEmpty } from './seed/demo-organisation.ts';
 import { VERSION } from './version.ts';
 
 const PROJECT_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -26,7 +31,12 @@ function readConfig(): Config {
   }
 }
 
-function banner(config: Config, database: DatabaseHandle): string {
+interface Services {
+  identity?: RunningIdentityStandIn;
+  smtp?: SmtpStandIn;
+}
+
+function banner(config: Config, database: DatabaseHandle, services: Services, issuer: string, smtpUrl: string): string {
   const url = `http://${config.HOST}:${config.PORT}`;
   const lines = [
     '',
@@ -34,7 +44,11 @@ function banner(config: Config, database: DatabaseHandle): string {
     `  App:        ${url}`,
     `  Health:     ${url}/api/health`,
     `  PostgreSQL: ${database.embedded ? `project cluster on 127.0.0.1:${config.PLANKTIDE_PG_PORT} (data in ${path.relative(PROJECT_ROOT, config.PLANKTIDE_DATA_DIR)}/postgres)` : 'DATABASE_URL'}`,
-    `  Demo people: ${DEMO_PEOPLE.map((p) => `${p.email} (${p.role})`).join(', ')}`,
+    `  Sign-in:    ${services.identity ? `local identity stand-in at ${issuer}` : issuer}`,
+    `  Mail:       ${services.smtp ? `local SMTP stand-in at ${smtpUrl}; caught mail at ${url}/dev/mail` : smtpUrl.replace(/\/\/[^@]*@/, '//***@')}`,
+    ...(services.identity
+      ? ['  Demo accounts (password "' + DEMO_PASSWORD + '"):', ...DEMO_PEOPLE.map((p) => `    ${p.email.padEnd(28)} ${p.role}`)]
+      : []),
     '  Stop with Ctrl-C: everything started here stops with it.',
     '',
   ];
@@ -47,6 +61,8 @@ async function main(): Promise<void> {
   let database: DatabaseHandle | undefined;
   let db: Db | undefined;
   let server: Server | undefined;
+  let mailer: Mailer | undefined;
+  const services: Services = {};
   let stopping = false;
 
   const stop = async (reason: string, code = 0) => {
@@ -59,6 +75,9 @@ async function main(): Promise<void> {
       setTimeout(() => server!.closeAllConnections(), 3000).unref();
       await closing;
     }
+    mailer?.close();
+    await services.identity?.close().catch(() => {});
+    await services.smtp?.close().catch(() => {});
     await db?.destroy().catch(() => {});
     try {
       database?.stop();
@@ -80,13 +99,54 @@ async function main(): Promise<void> {
     if (await seedDemoWhenEmpty(db)) say('Seeded the demo organisation.');
     const serveClient = config.PLANKTIDE_CLIENT === 'built';
     if (serveClient) await ensureClientBuilt(PROJECT_ROOT, say);
-    const app = createApp({ db, logger, version: VERSION, clientDir: serveClient ? clientDir(PROJECT_ROOT) : undefined });
+
+    let smtpUrl = config.SMTP_URL;
+    if (!smtpUrl) {
+      services.smtp = await startSmtpStandIn(config.SMTP_STANDIN_PORT);
+      smtpUrl = services.smtp.url;
+    }
+    mailer = createMailer(smtpUrl, config.MAIL_FROM);
+
+    let issuer = config.OIDC_ISSUER_URL;
+    if (!issuer) {
+      const created = await seedStandInAccounts(db, DEMO_PEOPLE.map((p) => ({ email: p.email, password: DEMO_PASSWORD, displayName: p.displayName })));
+      if (created.length) say(`Created ${created.length} demo sign-in account(s) in the identity stand-in.`);
+      services.identity = await startIdentityStandIn({
+        port: config.OIDC_STANDIN_PORT,
+        db,
+        cookieKeys: [config.SESSION_SECRET],
+        logger: logger.child({ service: 'identity-standin' }),
+        devMode: config.NODE_ENV !== 'production',
+        clients: [
+          {
+            clientId: config.OIDC_CLIENT_ID,
+            clientSecret: config.OIDC_CLIENT_SECRET,
+            redirectUris: [`${config.APP_BASE_URL}/auth/callback`],
+            postLogoutRedirectUris: [`${config.APP_BASE_URL}/`],
+          },
+        ],
+      });
+      issuer = services.identity.issuer;
+    }
+
+    const app = createApp({
+      db,
+      logger,
+      version: VERSION,
+      appBaseUrl: config.APP_BASE_URL,
+      oidc: { issuerUrl: issuer, clientId: config.OIDC_CLIENT_ID, clientSecret: config.OIDC_CLIENT_SECRET, sessionSecret: config.SESSION_SECRET },
+      mailer,
+      devMail: config.NODE_ENV === 'development' ? services.smtp : undefined,
+      clientDir: serveClient ? clientDir(PROJECT_ROOT) : undefined,
+    });
     server = app.listen(config.PORT, config.HOST);
     await new Promise<void>((resolve, reject) => {
       server!.once('listening', resolve);
       server!.once('error', reject);
     });
-    console.log(banner(config, database));
+    const sessions = new PostgresSessionStore(db);
+    setInterval(() => void sessions.prune().catch(() => {}), 3600_000).unref();
+    console.log(banner(config, database, services, issuer, smtpUrl));
   } catch (error) {
     console.error(`Planktide could not start: ${error instanceof Error ? error.message : String(error)}`);
     await stop('start-up failed', 1);

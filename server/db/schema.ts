@@ -1,28 +1,34 @@
 import type { ColumnType, Generated, Insertable, Selectable, Updateable } from 'kysely';
 
+/** A timestamptz column: read as Date, written as Date or ISO string, optional on insert (defaults). */
 type Timestamp = ColumnType<Date, Date | string | undefined, Date | string>;
+type RequiredTimestamp = ColumnType<Date, Date | string, Date | string>;
+type NullableTimestamp = ColumnType<Date | null, Date | string | null | undefined, Date | string | null>;
 
-export const ROLES = ['owner', 'manager', 'biologist', 'crew'] as const;
-export type Role = (typeof ROLES)[number];
+import type { Role } from '../../shared/schemas/common.schema.ts';
+
+export type { Role };
 
 export interface OrganisationTable {
   id: Generated<string>;
   name: string;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface UserTable {
   id: Generated<string>;
   email: string;
   display_name: string;
-  created_at: Generated<Timestamp>;
+  oidc_issuer: string | null;
+  oidc_subject: string | null;
+  created_at: Timestamp;
 }
 
 export interface MembershipTable {
   organisation_id: string;
   user_id: string;
   role: Role;
-  created_at: Generated<Timestamp>;
+  created_at: Timestamp;
 }
 
 export interface SiteTable {
@@ -36,8 +42,40 @@ export interface SiteTable {
   bed_roughness_m: number;
   gear_top_m: number;
   gear_bottom_m: number;
-  created_at: Generated<Timestamp>;
-  updated_at: Generated<Timestamp>;
+  bed_type: string | null;
+  archived_at: NullableTimestamp;
+  created_at: Timestamp;
+  updated_at: Timestamp;
+}
+
+export interface InvitationTable {
+  id: Generated<string>;
+  organisation_id: string;
+  email: string;
+  role: Role;
+  token_hash: string;
+  invited_by: string | null;
+  created_at: Timestamp;
+  expires_at: RequiredTimestamp;
+  accepted_at: NullableTimestamp;
+  accepted_by: string | null;
+  revoked_at: NullableTimestamp;
+}
+
+export interface AuditEventTable {
+  id: Generated<number>;
+  organisation_id: string | null;
+  actor_user_id: string | null;
+  action: string;
+  subject: string;
+  details: ColumnType<Record<string, unknown>, string | undefined, string>;
+  created_at: Timestamp;
+}
+
+export interface AppSessionTable {
+  sid: string;
+  sess: unknown;
+  expire: Date;
 }
 
 export interface Database {
@@ -45,6 +83,9 @@ export interface Database {
   users: UserTable;
   memberships: MembershipTable;
   sites: SiteTable;
+  invitations: InvitationTable;
+  audit_events: AuditEventTable;
+  app_sessions: AppSessionTable;
 }
 
 export type Organisation = Selectable<OrganisationTable>;
@@ -55,3 +96,5 @@ export type Membership = Selectable<MembershipTable>;
 export type Site = Selectable<SiteTable>;
 export type NewSite = Insertable<SiteTable>;
 export type SiteUpdate = Updateable<SiteTable>;
+export type Invitation = Selectable<InvitationTable>;
+export type AuditEvent = Selectable<AuditEventTable>;

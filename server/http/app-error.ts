@@ -5,6 +5,7 @@ export type ErrorCode =
   | 'forbidden'
   | 'not_found'
   | 'conflict'
+  | 'gone'
   | 'payload_too_large'
   | 'rate_limited'
   | 'service_unavailable'
@@ -17,6 +18,7 @@ const STATUS: Record<ErrorCode, number> = {
   forbidden: 403,
   not_found: 404,
   conflict: 409,
+  gone: 410,
   payload_too_large: 413,
   rate_limited: 429,
   service_unavailable: 503,

@@ -7,6 +7,9 @@ import type { Role } from '../db/schema.ts';
  */
 export const DEMO_ORGANISATION = 'Gullhaven Shellfish (demo)';
 
+/** Password of the demo accounts in the local identity stand-in (never used with a real identity service). */
+export const DEMO_PASSWORD = 'gullhaven-demo';
+
 export const DEMO_PEOPLE: { email: string; displayName: string; role: Role }[] = [
   { email: 'owner@gullhaven.test', displayName: 'Maren Tollefsen', role: 'owner' },
   { email: 'manager@gullhaven.test', displayName: 'Idris Calloway', role: 'manager' },

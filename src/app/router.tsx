@@ -1,15 +1,33 @@
-import { createBrowserRouter } from 'react-router-dom';
+import { createBrowserRouter, type RouteObject } from 'react-router-dom';
 import { AppLayout } from './layout.tsx';
 import { RouteError } from './route-error.tsx';
 import { NotFoundRoute } from './routes/not-found.tsx';
-import { OverviewRoute } from './routes/overview.tsx';
 
-export const routes = [
+// Route-level code splitting: each screen is its own chunk, loaded on first visit.
+const page = (load: () => Promise<{ default: React.ComponentType }>) => async () => ({ Component: (await load()).default });
+
+export const routes: RouteObject[] = [
   {
     element: <AppLayout />,
     errorElement: <RouteError />,
     children: [
-      { index: true, element: <OverviewRoute />, errorElement: <RouteError /> },
+      { index: true, lazy: page(() => import('./routes/home.tsx')) },
+      { path: 'welcome', lazy: page(() => import('./routes/welcome.tsx')) },
+      { path: 'account', lazy: page(() => import('./routes/account.tsx')) },
+      { path: 'invitations/:token', lazy: page(() => import('./routes/invitation.tsx')) },
+      {
+        path: 'o/:orgId',
+        lazy: page(() => import('./routes/org-layout.tsx')),
+        errorElement: <RouteError />,
+        children: [
+          { index: true, lazy: page(() => import('./routes/overview.tsx')) },
+          { path: 'sites', lazy: page(() => import('./routes/sites.tsx')) },
+          { path: 'sites/new', lazy: async () => ({ Component: (await import('./routes/site-edit.tsx')).SiteNewRoute }) },
+          { path: 'sites/:siteId/edit', lazy: page(() => import('./routes/site-edit.tsx')) },
+          { path: 'team', lazy: page(() => import('./routes/team.tsx')) },
+          { path: 'audit', lazy: page(() => import('./routes/audit.tsx')) },
+        ],
+      },
       { path: '*', element: <NotFoundRoute /> },
     ],
   },

@@ -7,11 +7,21 @@ export class ApiError extends Error {
     readonly status: number,
     readonly code: string,
     message: string,
-    readonly details?: unknown,
+    readonly details?: { path: string; message: string }[],
   ) {
     super(message);
     this.name = 'ApiError';
   }
+}
+
+async function toApiError(response: Response): Promise<ApiError> {
+  const body: unknown = await response.json().catch(() => null);
+  const parsed = apiErrorSchema.safeParse(body);
+  if (parsed.success) {
+    const { code, message, details } = parsed.data.error;
+    return new ApiError(response.status, code, message, Array.isArray(details) ? (details as { path: string; message: string }[]) : undefined);
+  }
+  return new ApiError(response.status, 'unexpected_response', `The server answered ${response.status} without an error body.`);
 }
 
 /**
@@ -20,12 +30,22 @@ export class ApiError extends Error {
  */
 export async function apiGet<T>(path: string, schema: z.ZodType<T>, okStatuses: number[] = []): Promise<T> {
   const response = await fetch(`/api${path}`, { headers: { Accept: 'application/json' }, credentials: 'same-origin' });
-  const body: unknown = await response.json().catch(() => null);
-  if (response.ok || okStatuses.includes(response.status)) return schema.parse(body);
-  const parsed = apiErrorSchema.safeParse(body);
-  if (parsed.success) {
-    const { code, message, details } = parsed.data.error;
-    throw new ApiError(response.status, code, message, details);
-  }
-  throw new ApiError(response.status, 'unexpected_response', `The server answered ${response.status} without an error body.`);
+  if (response.ok || okStatuses.includes(response.status)) return schema.parse(await response.json());
+  throw await toApiError(response);
 }
+
+/** A write: JSON body, the anti-forgery header the server requires, and the parsed answer (or null for 204). */
+export async function apiSend<T>(method: 'POST' | 'PATCH' | 'DELETE', path: string, body?: unknown, schema?: z.ZodType<T>): Promise<T | null> {
+  const response = await fetch(`/api${path}`, {
+    method,
+    credentials: 'same-origin',
+    headers: { Accept: 'application/json', 'Content-Type': 'application/json', 'X-Planktide-CSRF': '1' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  if (!response.ok) throw await toApiError(response);
+  if (response.status === 204 || !schema) return null;
+  return schema.parse(await response.json());
+}
+
+export const signInUrl = (returnTo = window.location.pathname + window.location.search) =>
+  `/auth/login?returnTo=${encodeURIComponent(returnTo)}`;

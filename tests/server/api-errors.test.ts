@@ -1,8 +1,8 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { apiErrorSchema } from '../../shared/schemas/api-error.schema.ts';
-import { createApp } from '../../server/app.ts';
-import { listen, type RunningServer } from '../helpers/http.ts';
-import { quietLogger } from '../helpers/quiet-logger.ts';
+import type { RunningServer } from '../helpers/http.ts';
+import { freePort } from '../helpers/free-port.ts';
+import { startTestApp } from '../helpers/test-app.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-database.ts';
 
 describe('API error shape', () => {
@@ -10,7 +10,7 @@ describe('API error shape', () => {
   let server: RunningServer;
   beforeAll(async () => {
     database = await createTestDatabase();
-    server = await listen(createApp({ db: database.db, logger: quietLogger(), version: 'test' }));
+    server = await startTestApp(database.db, { port: await freePort() });
   });
   afterAll(async () => {
     await server.close();

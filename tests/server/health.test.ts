@@ -3,12 +3,11 @@ import os from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { healthSchema } from '../../shared/schemas/health.schema.ts';
-import { createApp } from '../../server/app.ts';
 import { createDb, ensureDatabase } from '../../server/db/connect.ts';
 import { startCluster, type RunningCluster } from '../../server/postgres/cluster.ts';
 import { freePort } from '../helpers/free-port.ts';
-import { listen, type RunningServer } from '../helpers/http.ts';
-import { quietLogger } from '../helpers/quiet-logger.ts';
+import type { RunningServer } from '../helpers/http.ts';
+import { startTestApp } from '../helpers/test-app.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-database.ts';
 
 async function health(baseUrl: string) {
@@ -21,7 +20,7 @@ describe('GET /api/health with the database up', () => {
   let server: RunningServer;
   beforeAll(async () => {
     database = await createTestDatabase();
-    server = await listen(createApp({ db: database.db, logger: quietLogger(), version: '9.9.9-test' }));
+    server = await startTestApp(database.db, { port: await freePort() });
   });
   afterAll(async () => {
     await server.close();
@@ -31,7 +30,7 @@ describe('GET /api/health with the database up', () => {
   it('answers 200 with the database ok and the version', async () => {
     const { status, body } = await health(server.baseUrl);
     expect(status).toBe(200);
-    expect(body).toEqual({ status: 'ok', database: 'ok', version: '9.9.9-test' });
+    expect(body).toEqual({ status: 'ok', database: 'ok', version: 'test' });
   });
 });
 
@@ -50,7 +49,7 @@ describe('GET /api/health while PostgreSQL stops and starts again', () => {
     cluster = start();
     await ensureDatabase(cluster.adminUrl, 'planktide');
     db = createDb(cluster.urlFor('planktide'), 2);
-    server = await listen(createApp({ db, logger: quietLogger(), version: '1.0.0' }));
+    server = await startTestApp(db, { port: await freePort() });
   }, 60_000);
   afterAll(async () => {
     await server.close();

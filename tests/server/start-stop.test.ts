@@ -79,7 +79,13 @@ describe('npm start on a fresh data folder', () => {
     const port = await freePort();
     pgPort = await freePort();
     baseUrl = `http://127.0.0.1:${port}`;
-    env = { PORT: String(port), PLANKTIDE_PG_PORT: String(pgPort), PLANKTIDE_DATA_DIR: dataDir };
+    env = {
+      PORT: String(port),
+      PLANKTIDE_PG_PORT: String(pgPort),
+      OIDC_STANDIN_PORT: String(await freePort()),
+      SMTP_STANDIN_PORT: String(await freePort()),
+      PLANKTIDE_DATA_DIR: dataDir,
+    };
   });
   afterAll(() => rmSync(dataDir, { recursive: true, force: true }));
 

@@ -1,0 +1,136 @@
+import { createHash, randomBytes } from 'node:crypto';
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Browser } from '../helpers/browser.ts';
+import { SITE_VALUES, startTeamWorld, type TeamWorld } from '../helpers/team-world.ts';
+
+type Subject = 'anonymous' | 'ownerB' | 'crewA' | 'biologistA' | 'managerA' | 'ownerA';
+/** Least privileged first, so that the owner's destructive call (if allowed) comes last. */
+const SUBJECTS: Subject[] = ['anonymous', 'ownerB', 'crewA', 'biologistA', 'managerA', 'ownerA'];
+
+interface RouteCase {
+  /** The route as declared: METHOD and path under /api. */
+  route: string;
+  /** The concrete path for one call (may set up data first). */
+  path: (w: TeamWorld) => string | Promise<string>;
+  body?: unknown;
+  expect: Record<Subject, number>;
+}
+
+const SITE_BODY = { name: 'New line', latitudeDeg: 57.2, longitudeDeg: -6.1, timeZone: 'Europe/London', waterDepthM: 12, bedType: 'mud', gearTopM: 1, gearBottomM: 6 };
+let siteCounter = 0;
+
+async function pendingInvitation(w: TeamWorld, email: string): Promise<{ id: string; token: string }> {
+  const token = randomBytes(32).toString('base64url');
+  const row = await w.database.db
+    .insertInto('invitations')
+    .values({ organisation_id: w.orgA, email, role: 'crew', token_hash: createHash('sha256').update(token).digest('hex'), invited_by: w.userIds.ownerA, expires_at: new Date(Date.now() + 3600_000) })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return { id: row.id, token };
+}
+
+async function spareMember(w: TeamWorld): Promise<string> {
+  const user = await w.database.db.insertInto('users').values({ email: `spare${siteCounter++}@alder.test`, display_name: 'Spare' }).returning('id').executeTakeFirstOrThrow();
+  await w.database.db.insertInto('memberships').values({ organisation_id: w.orgA, user_id: user.id, role: 'crew' }).execute();
+  return user.id;
+}
+
+async function spareSite(w: TeamWorld): Promise<string> {
+  return (await w.database.db.insertInto('sites').values({ ...SITE_VALUES, organisation_id: w.orgA, name: `Spare ${siteCounter++}` }).returning('id').executeTakeFirstOrThrow()).id;
+}
+
+const everyone = (status: number, anonymous = 401): Record<Subject, number> => ({ anonymous, ownerB: status, crewA: status, biologistA: status, managerA: status, ownerA: status });
+const members = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: status, biologistA: status, managerA: status, ownerA: status });
+const managers = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: 403, biologistA: 403, managerA: status, ownerA: status });
+const owners = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: 403, biologistA: 403, managerA: 403, ownerA: status });
+
+export const ROUTE_TABLE: RouteCase[] = [
+  { route: 'GET /health', path: () => '/health', expect: everyone(200, 200) },
+  { route: 'GET /me', path: () => '/me', expect: everyone(200) },
+  { route: 'POST /organisations', path: () => '/organisations', body: { name: 'Side venture' }, expect: everyone(201) },
+  { route: 'GET /orgs/:orgId', path: (w) => `/orgs/${w.orgA}`, expect: members(200) },
+  // A wrong confirmation name: the owner gets past authorisation to the check (400) and nothing is deleted.
+  { route: 'DELETE /orgs/:orgId', path: (w) => `/orgs/${w.orgA}`, body: { confirmName: 'not the name' }, expect: owners(400) },
+  { route: 'GET /orgs/:orgId/members', path: (w) => `/orgs/${w.orgA}/members`, expect: managers(200) },
+  { route: 'PATCH /orgs/:orgId/members/:userId', path: async (w) => `/orgs/${w.orgA}/members/${await spareMember(w)}`, body: { role: 'biologist' }, expect: owners(204) },
+  { route: 'DELETE /orgs/:orgId/members/:userId', path: async (w) => `/orgs/${w.orgA}/members/${await spareMember(w)}`, expect: owners(204) },
+  { route: 'GET /orgs/:orgId/invitations', path: (w) => `/orgs/${w.orgA}/invitations`, expect: managers(200) },
+  { route: 'POST /orgs/:orgId/invitations', path: (w) => `/orgs/${w.orgA}/invitations`, body: { email: 'deckhand@alder.test', role: 'crew' }, expect: managers(201) },
+  { route: 'DELETE /orgs/:orgId/invitations/:invitationId', path: async (w) => `/orgs/${w.orgA}/invitations/${(await pendingInvitation(w, 'x@alder.test')).id}`, expect: managers(204) },
+  // Only the invited address may see or accept an invitation; none of these subjects is it (the invitation test covers the invitee).
+  { route: 'GET /invitations/:token', path: async (w) => `/invitations/${(await pendingInvitation(w, 'newcomer@alder.test')).token}`, expect: everyone(403) },
+  { route: 'POST /invitations/:token/accept', path: async (w) => `/invitations/${(await pendingInvitation(w, 'newcomer@alder.test')).token}/accept`, expect: everyone(403) },
+  { route: 'GET /orgs/:orgId/audit', path: (w) => `/orgs/${w.orgA}/audit`, expect: owners(200) },
+  { route: 'GET /orgs/:orgId/sites', path: (w) => `/orgs/${w.orgA}/sites`, expect: members(200) },
+  { route: 'POST /orgs/:orgId/sites', path: (w) => `/orgs/${w.orgA}/sites`, body: () => ({ ...SITE_BODY, name: `New line ${siteCounter++}` }), expect: managers(201) },
+  { route: 'GET /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}`, expect: members(200) },
+  { route: 'PATCH /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}`, body: { gearBottomM: 9 }, expect: managers(200) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/archive', path: async (w) => `/orgs/${w.orgA}/sites/${await spareSite(w)}/archive`, expect: managers(200) },
+];
+
+/** Cross-organisation probes: an id of organisation B under A's path, and B's path itself. */
+const CROSS_CASES: RouteCase[] = [
+  { route: 'GET /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}`, expect: { ...members(404) } },
+  { route: 'PATCH /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}`, body: { gearBottomM: 9 }, expect: { ...managers(404), crewA: 403, biologistA: 403 } },
+  { route: 'GET /orgs/:orgId/sites', path: (w) => `/orgs/${w.orgB}/sites`, expect: { anonymous: 401, ownerB: 200, crewA: 404, biologistA: 404, managerA: 404, ownerA: 404 } },
+];
+
+async function call(w: TeamWorld, subject: Subject, c: RouteCase) {
+  const browser = subject === 'anonymous' ? new Browser() : await w.as(subject);
+  const [method] = c.route.split(' ');
+  const body = typeof c.body === 'function' ? (c.body as () => unknown)() : c.body;
+  return browser.api(w.baseUrl, method!, await c.path(w), body);
+}
+
+describe('authorisation over every API route', () => {
+  let world: TeamWorld;
+  beforeAll(async () => {
+    world = await startTeamWorld();
+  }, 60_000);
+  afterAll(async () => {
+    await world.close();
+  });
+
+  for (const c of [...ROUTE_TABLE, ...CROSS_CASES]) {
+    it(`${c.route} answers each role as the table says`, async () => {
+      const seen: Record<string, number> = {};
+      for (const subject of SUBJECTS) {
+        const { status, json } = await call(world, subject, c);
+        seen[subject] = status;
+        const text = JSON.stringify(json ?? '');
+        // No answer to someone of organisation A ever carries B's data, nor the other way round.
+        if (subject === 'ownerB') expect(text).not.toMatch(new RegExp(`${world.orgA}|${world.siteA}|Alder`));
+        else expect(text).not.toMatch(new RegExp(`${world.orgB}|${world.siteB}|Birch`));
+      }
+      expect(seen).toEqual(c.expect);
+    });
+  }
+
+  it('covers every route the server declares', () => {
+    const mounts: Record<string, string[]> = {
+      'health.routes.ts': [''],
+      'organisations.routes.ts': ['', '/orgs/:orgId'],
+      'invitations.routes.ts': ['/orgs/:orgId/invitations', '/invitations'],
+      'sites.routes.ts': ['/orgs/:orgId/sites'],
+      'audit.routes.ts': ['/orgs/:orgId/audit'],
+    };
+    const declared = new Set(ROUTE_TABLE.map((c) => c.route));
+    const serverDir = path.resolve(import.meta.dirname, '../../server');
+    const files = readdirSync(serverDir, { recursive: true, encoding: 'utf8' }).filter((f) => f.endsWith('.routes.ts') && !f.includes('identity-standin') && !f.includes('dev-mail'));
+    const missing: string[] = [];
+    for (const file of files) {
+      const name = path.basename(file);
+      expect(mounts[name], `mount prefixes for ${name} are listed in this test`).toBeDefined();
+      const source = readFileSync(path.join(serverDir, file), 'utf8');
+      for (const match of source.matchAll(/router\.(get|post|patch|put|delete)\('([^']*)'/g)) {
+        const method = match[1]!.toUpperCase();
+        const sub = match[2] === '/' ? '' : match[2]!;
+        const candidates = mounts[name]!.map((prefix) => `${method} ${`${prefix}${sub}` || '/'}`);
+        if (!candidates.some((candidate) => declared.has(candidate))) missing.push(`${name}: ${method} ${match[2]}`);
+      }
+    }
+    expect(missing).toEqual([]);
+  });
+});
