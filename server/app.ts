@@ -17,6 +17,8 @@ import type { Mailer } from './mail/mailer.ts';
 import type { SmtpStandIn } from './mail/smtp-standin.ts';
 import { accountRoutes, organisationRoutes } from './organisations/organisations.routes.ts';
 import { siteRoutes } from './sites/sites.routes.ts';
+import { siteTideRoutes, type TidesDeps } from './tides/tides.routes.ts';
+import { billingRoutes, billingWebhookRoutes, type BillingDeps } from './billing/billing.routes.ts';
 
 export interface AppDeps {
   db: Db;
@@ -28,6 +30,10 @@ export interface AppDeps {
   mailer: Mailer;
   /** Development only: show the mail caught by the local SMTP stand-in. */
   devMail?: SmtpStandIn;
+  /** Extra deps of the tides area (defaults: just the database). */
+  tides?: Omit<TidesDeps, 'db'>;
+  /** Extra deps of the billing area (defaults: just the database). */
+  billing?: Omit<BillingDeps, 'db'>;
   /** Folder of the built client; served with a fallback to index.html for client routes. */
   clientDir?: string;
 }
@@ -74,7 +80,12 @@ export function createApp(deps: AppDeps): Express {
   app.use(oidcRelyingParty(deps.db, { ...deps.oidc, appBaseUrl: deps.appBaseUrl }));
   if (deps.devMail) app.use(devMailRoutes(deps.devMail));
 
+  const tides: TidesDeps = { db: deps.db, ...deps.tides } as TidesDeps;
+  const billing: BillingDeps = { db: deps.db, ...deps.billing } as BillingDeps;
+
   const api = express.Router();
+  // Payment webhooks verify a signature over the raw body: before the JSON parser.
+  api.use(billingWebhookRoutes(billing));
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRoutes(deps.db, deps.version));
   api.use(loadCurrentUser(deps.db));
@@ -82,7 +93,9 @@ export function createApp(deps: AppDeps): Express {
   api.use(accountRoutes(deps.db));
   api.use('/invitations', invitationAcceptRoutes(deps.db));
   api.use('/orgs/:orgId', organisationRoutes(deps.db));
+  api.use('/orgs/:orgId/sites/:siteId/tides', siteTideRoutes(tides));
   api.use('/orgs/:orgId/sites', siteRoutes(deps.db));
+  api.use('/orgs/:orgId/billing', billingRoutes(billing));
   api.use('/orgs/:orgId/invitations', organisationInvitationRoutes({ db: deps.db, mailer: deps.mailer, appBaseUrl: deps.appBaseUrl }));
   api.use('/orgs/:orgId/audit', auditRoutes(deps.db));
   api.use(notFound);

@@ -78,7 +78,12 @@ export interface AppSessionTable {
   expire: Date;
 }
 
-export interface Database {
+import type { BillingTables } from './tables/billing.ts';
+import type { ForecastTables } from './tables/forecasts.ts';
+import type { TidesTables } from './tables/tides.ts';
+
+/** Every table; each product area declares its own in server/db/tables/. */
+export interface Database extends TidesTables, ForecastTables, BillingTables {
   organisations: OrganisationTable;
   users: UserTable;
   memberships: MembershipTable;

@@ -11,7 +11,7 @@ function navFor(orgId: string, role: string) {
     { to: `/o/${orgId}/sites`, label: 'Sites', end: false },
   ];
   if (canManage(role as never)) items.push({ to: `/o/${orgId}/team`, label: 'Team', end: false });
-  if (role === 'owner') items.push({ to: `/o/${orgId}/audit`, label: 'Audit log', end: false });
+  if (role === 'owner') items.push({ to: `/o/${orgId}/audit`, label: 'Audit log', end: false }, { to: `/o/${orgId}/billing`, label: 'Billing', end: false });
   return items;
 }
 
