@@ -47,5 +47,17 @@ export async function apiSend<T>(method: 'POST' | 'PATCH' | 'DELETE', path: stri
   return schema.parse(await response.json());
 }
 
+/** A multipart upload (e.g. a CSV in the field "file") with the anti-forgery header; the browser sets the multipart boundary. */
+export async function apiUpload<T>(path: string, form: FormData, schema: z.ZodType<T>): Promise<T> {
+  const response = await fetch(`/api${path}`, {
+    method: 'POST',
+    credentials: 'same-origin',
+    headers: { Accept: 'application/json', 'X-Planktide-CSRF': '1' },
+    body: form,
+  });
+  if (!response.ok) throw await toApiError(response);
+  return schema.parse(await response.json());
+}
+
 export const signInUrl = (returnTo = window.location.pathname + window.location.search) =>
   `/auth/login?returnTo=${encodeURIComponent(returnTo)}`;

@@ -15,6 +15,7 @@ export function SiteList({ orgId, sites, canEdit }: { orgId: string; sites: Site
             <th scope="col" className="px-3 py-2">Water depth</th>
             <th scope="col" className="px-3 py-2">Gear band (depth below surface)</th>
             <th scope="col" className="px-3 py-2">Time zone</th>
+            <th scope="col" className="px-3 py-2"><span className="sr-only">Links</span></th>
           </tr>
         </thead>
         <tbody>
@@ -28,6 +29,11 @@ export function SiteList({ orgId, sites, canEdit }: { orgId: string; sites: Site
               <td className="px-3 py-2">{fmt(site.waterDepthM)} m</td>
               <td className="px-3 py-2">{fmt(site.gearTopM)}–{fmt(site.gearBottomM)} m</td>
               <td className="px-3 py-2">{site.timeZone}</td>
+              <td className="px-3 py-2">
+                <Link className="text-tide-700 underline" to={`/o/${orgId}/sites/${site.id}/tides`} aria-label={`Tides at ${site.name}`}>
+                  Tides
+                </Link>
+              </td>
             </tr>
           ))}
         </tbody>
