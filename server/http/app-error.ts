@@ -2,6 +2,7 @@ export type ErrorCode =
   | 'bad_request'
   | 'validation_failed'
   | 'unauthenticated'
+  | 'payment_required'
   | 'forbidden'
   | 'not_found'
   | 'conflict'
@@ -15,6 +16,7 @@ const STATUS: Record<ErrorCode, number> = {
   bad_request: 400,
   validation_failed: 400,
   unauthenticated: 401,
+  payment_required: 402,
   forbidden: 403,
   not_found: 404,
   conflict: 409,
