@@ -17,6 +17,9 @@ import type { Mailer } from './mail/mailer.ts';
 import type { SmtpStandIn } from './mail/smtp-standin.ts';
 import { accountRoutes, organisationRoutes } from './organisations/organisations.routes.ts';
 import { siteRoutes } from './sites/sites.routes.ts';
+import { forecastRoutes, type ForecastsDeps } from './forecasts/forecasts.routes.ts';
+import { alertRoutes } from './forecasts/alerts.routes.ts';
+import { mailSettingsRoutes } from './mail/mail-settings.routes.ts';
 import { siteTideRoutes, type TidesDeps } from './tides/tides.routes.ts';
 import { billingRoutes, billingWebhookRoutes, type BillingDeps } from './billing/billing.routes.ts';
 
@@ -32,6 +35,8 @@ export interface AppDeps {
   devMail?: SmtpStandIn;
   /** Extra deps of the tides area (defaults: just the database). */
   tides?: Omit<TidesDeps, 'db'>;
+  /** Queue, tides and subscription gate for forecasts (default: read-only, run-now answers 503). */
+  forecasts?: Omit<ForecastsDeps, 'db'>;
   /** Extra deps of the billing area (defaults: just the database). */
   billing?: Omit<BillingDeps, 'db'>;
   /** Folder of the built client; served with a fallback to index.html for client routes. */
@@ -91,11 +96,14 @@ export function createApp(deps: AppDeps): Express {
   api.use(loadCurrentUser(deps.db));
   api.use(csrfGuard(new URL(deps.appBaseUrl).origin));
   api.use(accountRoutes(deps.db));
+  api.use(mailSettingsRoutes(deps.db));
   api.use('/invitations', invitationAcceptRoutes(deps.db));
   api.use('/orgs/:orgId', organisationRoutes(deps.db));
   api.use('/orgs/:orgId/sites/:siteId/tides', siteTideRoutes(tides));
   api.use('/orgs/:orgId/sites', siteRoutes(deps.db));
   api.use('/orgs/:orgId/billing', billingRoutes(billing));
+  api.use('/orgs/:orgId/alerts', alertRoutes(deps.db));
+  api.use('/orgs/:orgId', forecastRoutes({ db: deps.db, ...deps.forecasts }));
   api.use('/orgs/:orgId/invitations', organisationInvitationRoutes({ db: deps.db, mailer: deps.mailer, appBaseUrl: deps.appBaseUrl }));
   api.use('/orgs/:orgId/audit', auditRoutes(deps.db));
   api.use(notFound);

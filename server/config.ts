@@ -25,6 +25,22 @@ const configSchema = z.object({
   SESSION_SECRET: z.string().min(32, 'must be at least 32 characters').optional(),
   SMTP_URL: z.url({ protocol: /^smtps?$/, error: 'must be an smtp:// or smtps:// URL' }).optional(),
   SMTP_STANDIN_PORT: port.default(2525),
+  TIDE_FEED_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
+  TIDE_FEED_API_KEY: z.string().min(1).default('planktide-local-feed-key'),
+  TIDE_FEED_STANDIN_PORT: port.default(3003),
+  TIDE_FEED_TIMEOUT_MS: z.coerce.number().int().min(100).max(120_000).default(8000),
+  FORECAST_LAYERS: z.coerce.number().int().min(10).max(400).default(50),
+  FORECAST_TIME_STEP_S: z.coerce.number().min(1).max(120).default(30),
+  PLANKTIDE_WORKERS: z.coerce.number().int().min(0, 'must be 0 or more').max(16).default(1),
+  PLANKTIDE_SCHEDULER: z.enum(['on', 'off']).default('on'),
+  QUEUE_JOB_TIMEOUT_S: z.coerce.number().int().min(5).max(86400).default(900),
+  QUEUE_RETRY_DELAY_S: z.coerce.number().int().min(1).max(3600).default(30),
+  QUEUE_MAINTENANCE_S: z.coerce.number().int().min(1).max(3600).default(60),
+  PAYMENTS_URL: z.url({ protocol: /^https?$/, error: 'must be an http:// or https:// URL' }).optional(),
+  STRIPE_SECRET_KEY: z.string().min(8).optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().min(8).optional(),
+  PAYMENTS_STANDIN_PORT: port.default(3002),
+  BILLING_GRACE_DAYS: z.coerce.number().int().min(0).max(60).default(7),
   MAIL_FROM: z.string().min(3).default('Planktide <no-reply@planktide.invalid>'),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
@@ -47,6 +63,8 @@ function productionProblems(parsed: ParsedConfig): string[] {
   const problems: string[] = [];
   if (!parsed.SESSION_SECRET) problems.push('SESSION_SECRET: must be set in production (at least 32 random characters)');
   if (parsed.OIDC_ISSUER_URL && !parsed.OIDC_CLIENT_SECRET) problems.push('OIDC_CLIENT_SECRET: must be set when OIDC_ISSUER_URL is set in production');
+  if ((parsed.PAYMENTS_URL || parsed.STRIPE_SECRET_KEY) && !parsed.STRIPE_WEBHOOK_SECRET) problems.push('STRIPE_WEBHOOK_SECRET: must be set when a payments service is configured in production');
+  if (parsed.TIDE_FEED_URL && parsed.TIDE_FEED_API_KEY === 'planktide-local-feed-key') problems.push('TIDE_FEED_API_KEY: must be set when TIDE_FEED_URL is set in production');
   return problems;
 }
 

@@ -14,6 +14,11 @@ import { seedStandInAccounts } from './identity-standin/accounts.ts';
 import { createMailer, type Mailer } from './mail/mailer.ts';
 import { startSmtpStandIn, type SmtpStandIn } from './mail/smtp-standin.ts';
 import { DEMO_PASSWORD, DEMO_PEOPLE, seedDemoWhenEmpty } from './seed/demo-organisation.ts';
+import { createTideFeedClient } from './tides/tide-feed.client.ts';
+import { startTideFeedStandIn, type TideFeedStandIn } from './tides/tide-feed-standin.ts';
+import { startBilling, type RunningBilling } from './billing/start-billing.ts';
+import { requireActiveSubscription } from './billing/subscription-gate.ts';
+import { queueFirstForecasts, startForecastServices, type ForecastServices } from './forecasts/services.ts';
 import { VERSION } from './version.ts';
 
 const PROJECT_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..');
@@ -34,6 +39,9 @@ function readConfig(): Config {
 interface Services {
   identity?: RunningIdentityStandIn;
   smtp?: SmtpStandIn;
+  tideFeed?: TideFeedStandIn;
+  forecasts?: ForecastServices;
+  billing?: RunningBilling;
 }
 
 function banner(config: Config, database: DatabaseHandle, services: Services, issuer: string, smtpUrl: string): string {
@@ -46,6 +54,9 @@ function banner(config: Config, database: DatabaseHandle, services: Services, is
     `  PostgreSQL: ${database.embedded ? `project cluster on 127.0.0.1:${config.PLANKTIDE_PG_PORT} (data in ${path.relative(PROJECT_ROOT, config.PLANKTIDE_DATA_DIR)}/postgres)` : 'DATABASE_URL'}`,
     `  Sign-in:    ${services.identity ? `local identity stand-in at ${issuer}` : issuer}`,
     `  Mail:       ${services.smtp ? `local SMTP stand-in at ${smtpUrl}; caught mail at ${url}/dev/mail` : smtpUrl.replace(/\/\/[^@]*@/, '//***@')}`,
+    `  Payments:   ${services.billing?.describe ?? 'off'}`,
+    `  Tide feed:  ${services.tideFeed ? `local stand-in at ${services.tideFeed.url}` : 'TIDE_FEED_URL'}`,
+    `  Forecasts:  scheduler ${config.PLANKTIDE_SCHEDULER}, ${config.PLANKTIDE_WORKERS} worker(s) in this process; more with \`npm run worker\``,
     ...(services.identity
       ? ['  Demo accounts (password "' + DEMO_PASSWORD + '"):', ...DEMO_PEOPLE.map((p) => `    ${p.email.padEnd(28)} ${p.role}`)]
       : []),
@@ -75,7 +86,10 @@ async function main(): Promise<void> {
       setTimeout(() => server!.closeAllConnections(), 3000).unref();
       await closing;
     }
+    await services.forecasts?.stop().catch(() => {});
     mailer?.close();
+    await services.tideFeed?.close().catch(() => {});
+    await services.billing?.close().catch(() => {});
     await services.identity?.close().catch(() => {});
     await services.smtp?.close().catch(() => {});
     await db?.destroy().catch(() => {});
@@ -96,7 +110,8 @@ async function main(): Promise<void> {
     db = createDb(database.url);
     const applied = await migrateToLatest(db);
     if (applied.length) say(`Applied ${applied.length} migration(s).`);
-    if (await seedDemoWhenEmpty(db)) say('Seeded the demo organisation.');
+    const seeded = await seedDemoWhenEmpty(db);
+    if (seeded) say('Seeded the demo organisation.');
     const serveClient = config.PLANKTIDE_CLIENT === 'built';
     if (serveClient) await ensureClientBuilt(PROJECT_ROOT, say);
 
@@ -129,6 +144,28 @@ async function main(): Promise<void> {
       issuer = services.identity.issuer;
     }
 
+    services.billing = await startBilling({
+      paymentsUrl: config.PAYMENTS_URL,
+      secretKey: config.STRIPE_SECRET_KEY,
+      webhookSecret: config.STRIPE_WEBHOOK_SECRET,
+      standInPort: config.PAYMENTS_STANDIN_PORT,
+      host: config.HOST,
+      appBaseUrl: config.APP_BASE_URL,
+      graceDays: config.BILLING_GRACE_DAYS,
+    });
+
+    let tideFeedUrl = config.TIDE_FEED_URL;
+    if (!tideFeedUrl) {
+      services.tideFeed = await startTideFeedStandIn({ port: config.TIDE_FEED_STANDIN_PORT, apiKey: config.TIDE_FEED_API_KEY });
+      tideFeedUrl = services.tideFeed.url;
+    }
+    const feed = createTideFeedClient({ baseUrl: tideFeedUrl, apiKey: config.TIDE_FEED_API_KEY, timeoutMs: config.TIDE_FEED_TIMEOUT_MS });
+    services.forecasts = await startForecastServices({ config, db, databaseUrl: database.url, feed, mailer, logger });
+    if (seeded) {
+      const queued = await queueFirstForecasts({ db, boss: services.forecasts.boss, tides: services.forecasts.tides });
+      say(`Queued ${queued} first demo forecast(s); they appear within a minute or two.`);
+    }
+
     const app = createApp({
       db,
       logger,
@@ -136,6 +173,13 @@ async function main(): Promise<void> {
       appBaseUrl: config.APP_BASE_URL,
       oidc: { issuerUrl: issuer, clientId: config.OIDC_CLIENT_ID, clientSecret: config.OIDC_CLIENT_SECRET, sessionSecret: config.SESSION_SECRET },
       mailer,
+      tides: { feed },
+      forecasts: {
+        boss: services.forecasts.boss,
+        tides: services.forecasts.tides,
+        forecastGate: requireActiveSubscription(db, { graceDays: config.BILLING_GRACE_DAYS }),
+      },
+      billing: services.billing.deps,
       devMail: config.NODE_ENV === 'development' ? services.smtp : undefined,
       clientDir: serveClient ? clientDir(PROJECT_ROOT) : undefined,
     });

@@ -44,6 +44,13 @@ export interface SiteTable {
   gear_bottom_m: number;
   bed_type: string | null;
   archived_at: NullableTimestamp;
+  forecast_local_time: ColumnType<string, string | undefined, string>;
+  forecast_horizon_days: ColumnType<number, number | undefined, number>;
+  window_settings: ColumnType<unknown, string | undefined, string>;
+  /** The site's tides (server/db/tables/tides.ts). */
+  active_constituent_set_id: string | null;
+  tide_station_id: string | null;
+  tide_station_name: string | null;
   created_at: Timestamp;
   updated_at: Timestamp;
 }

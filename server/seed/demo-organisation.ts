@@ -1,5 +1,6 @@
 import type { Db } from '../db/connect.ts';
 import type { Role } from '../db/schema.ts';
+import { organismParamsSchema, type OrganismParamsInput } from '../../shared/schemas/organism.schema.ts';
 
 /**
  * An invented farm business for trying Planktide. Places, people and numbers are made up;
@@ -50,6 +51,48 @@ export const DEMO_SITES = [
   },
 ];
 
+/**
+ * Invented demo organisms with values inside published ranges (docs/organisms.md): sinking rates of
+ * living cells 0–30 m/d, most under 1–2 m/d (Smayda 1970); a 40 µm cyst of density 1200 kg/m³ sinks
+ * about 10 m/d (Stokes); dinoflagellates swim 0.5–2 m/h (Hand et al. 1965). Triggers are examples a
+ * farm would set itself, not legal limits.
+ */
+export const DEMO_PROFILES: { name: string; taxon: string; params: OrganismParamsInput }[] = [
+  {
+    name: 'Slow-sinking chain diatom',
+    taxon: 'Pseudo-nitzschia spp. (demo values)',
+    params: {
+      settlingVelocityMPerDay: 0.5,
+      growth: { maxRatePerDay: null, temperatureC: 12, lightAttenuationPerM: 0.25, lightSaturationUmol: 150 },
+      mortalityPerDay: 0.15,
+      initialCellsPerL: 40_000,
+      triggerCellsPerL: 150_000,
+    },
+  },
+  {
+    name: 'Heavy resting cyst',
+    taxon: 'Alexandrium spp. cysts (demo values)',
+    params: {
+      settlingVelocityMPerDay: 10,
+      bedExchange: { criticalStressPa: 0.15, erosionRate: 0.002 },
+      initialCellsPerL: 300,
+      triggerCellsPerL: 100,
+    },
+  },
+  {
+    name: 'Swimming dinoflagellate',
+    taxon: 'Dinophysis spp. (demo values)',
+    params: {
+      settlingVelocityMPerDay: 0.2,
+      swimming: { speedMPerHour: 1, schedule: { type: 'sun' }, minDepthM: 1, maxDepthM: 15 },
+      growth: { maxRatePerDay: null, temperatureC: 12, lightAttenuationPerM: 0.25, lightSaturationUmol: 100 },
+      mortalityPerDay: 0.1,
+      initialCellsPerL: 300,
+      triggerCellsPerL: 100,
+    },
+  },
+];
+
 /** Seeds the demo organisation when the database holds no organisation yet. Returns whether it seeded. */
 export async function seedDemoWhenEmpty(db: Db): Promise<boolean> {
   return db.transaction().execute(async (trx) => {
@@ -64,10 +107,19 @@ export async function seedDemoWhenEmpty(db: Db): Promise<boolean> {
         .executeTakeFirstOrThrow();
       await trx.insertInto('memberships').values({ organisation_id: org.id, user_id: user.id, role: person.role }).execute();
     }
-    await trx
+    const sites = await trx
       .insertInto('sites')
       .values(DEMO_SITES.map((site) => ({ ...site, organisation_id: org.id })))
+      .returning('id')
       .execute();
+    for (const demo of DEMO_PROFILES) {
+      const profile = await trx.insertInto('organism_profiles').values({ organisation_id: org.id, name: demo.name, taxon: demo.taxon }).returning('id').executeTakeFirstOrThrow();
+      await trx
+        .insertInto('organism_profile_versions')
+        .values({ profile_id: profile.id, organisation_id: org.id, version: 1, params: JSON.stringify(organismParamsSchema.parse(demo.params)), note: 'Demo profile' })
+        .execute();
+      await trx.insertInto('site_organisms').values(sites.map((site) => ({ site_id: site.id, profile_id: profile.id }))).execute();
+    }
     return true;
   });
 }

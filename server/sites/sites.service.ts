@@ -1,6 +1,7 @@
 import { bedTypeRoughness } from '../../shared/bed-types.ts';
 import { checkMergedSite, type Site, type SiteInput, type SiteUpdate } from '../../shared/schemas/site.schema.ts';
 import { recordAudit } from '../audit/audit.repository.ts';
+import { siteLimitFor } from '../billing/subscription-gate.ts';
 import type { Db } from '../db/connect.ts';
 import { AppError } from '../http/app-error.ts';
 import type { CurrentUser } from '../http/request-context.ts';
@@ -24,6 +25,14 @@ export async function createSite(db: Db, actor: CurrentUser, organisationId: str
   return db
     .transaction()
     .execute(async (trx) => {
+      // The plan sets how many active sites an organisation may have (none set before subscribing).
+      const limit = await siteLimitFor(db, organisationId);
+      if (limit !== null) {
+        const active = await trx.selectFrom('sites').select((eb) => eb.fn.countAll<number>().as('n')).where('organisation_id', '=', organisationId).where('archived_at', 'is', null).executeTakeFirstOrThrow();
+        if (Number(active.n) >= limit) {
+          throw new AppError('conflict', `Your plan allows ${limit} active site(s). Archive a site or ask an owner to change the plan.`);
+        }
+      }
       const row = await repo.insertSite(trx, {
         organisation_id: organisationId,
         name: input.name,

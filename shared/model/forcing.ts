@@ -64,7 +64,7 @@ export function compileForcing(c: ModelCase): Forcing {
   const sinInc = new Float64Array(n);
   f.constituents.forEach((k, i) => {
     // The schema has already refused unknown names.
-    omega[i] = constituentOmega(k.name as Parameters<typeof constituentOmega>[0]);
+    omega[i] = constituentOmega(k.name);
     phase[i] = k.phase_deg * DEG;
     major[i] = k.amplitude_m_s;
     minor[i] = k.minor_amplitude_m_s;

@@ -345,26 +345,45 @@ function record(run: ModelRun, k: number): boolean {
   return Number.isFinite(check);
 }
 
-/** Steps the run to the end, storing every output; returns the filled result. */
-export function runToEnd(run: ModelRun, options: RunOptions = {}): ModelResult {
-  const r = run.result;
-  const times = r.timeS;
+/** Where a run is up to: lets a caller step it in slices (e.g. to report progress between them). */
+export interface RunCursor {
+  /** Outputs stored so far. */
+  stored: number;
+  status: RunStatus;
+}
+
+export function startRun(run: ModelRun): RunCursor {
+  return { stored: 1, status: record(run, 0) ? 'ok' : 'non-finite' };
+}
+
+/** Steps on by at most `maxOutputs` outputs; returns whether the run has ended (done or failed). */
+export function advanceRun(run: ModelRun, cursor: RunCursor, maxOutputs: number, options: RunOptions = {}): boolean {
+  const times = run.result.timeS;
   const dtMax = run.modelCase.time_step_s;
   const duration = run.modelCase.duration_s;
-  let status: RunStatus = record(run, 0) ? 'ok' : 'non-finite';
-  let stored = 1;
-  for (let k = 1; k < times.length && status === 'ok'; k++) {
+  const last = Math.min(times.length, cursor.stored + maxOutputs);
+  for (let k = cursor.stored; k < last && cursor.status === 'ok'; k++) {
     const t0 = times[k - 1]!;
     const span = times[k]! - t0;
     const steps = Math.max(1, Math.ceil(span / dtMax - 1e-9));
     const dt = span / steps;
-    for (let s = 0; s < steps && status === 'ok'; s++) status = stepRun(run, t0 + s * dt, dt);
-    if (status !== 'ok') break;
-    if (!record(run, k)) status = 'non-finite';
-    stored = k + 1;
+    for (let s = 0; s < steps && cursor.status === 'ok'; s++) cursor.status = stepRun(run, t0 + s * dt, dt);
+    if (cursor.status !== 'ok') break;
+    if (!record(run, k)) {
+      cursor.status = 'non-finite';
+      break;
+    }
+    cursor.stored = k + 1;
     options.onProgress?.(times[k]! / duration, times[k]!);
   }
-  r.status = status;
+  return cursor.status !== 'ok' || cursor.stored >= times.length;
+}
+
+/** Fills the result's status and summary once the run has ended. */
+export function finishRun(run: ModelRun, cursor: RunCursor): ModelResult {
+  const r = run.result;
+  const stored = cursor.stored;
+  r.status = cursor.status;
   const sm = r.summary;
   sm.steps = run.steps;
   sm.bedStressMaxPa = Math.max(run.bedStressMax, maxUpTo(r.bedStressPa, stored));
@@ -379,6 +398,13 @@ export function runToEnd(run: ModelRun, options: RunOptions = {}): ModelResult {
     s.bedFinal = o.bed;
   });
   return r;
+}
+
+/** Steps the run to the end, storing every output; returns the filled result. */
+export function runToEnd(run: ModelRun, options: RunOptions = {}): ModelResult {
+  const cursor = startRun(run);
+  advanceRun(run, cursor, Number.MAX_SAFE_INTEGER, options);
+  return finishRun(run, cursor);
 }
 
 function maxUpTo(values: Float64Array, count: number): number {

@@ -41,7 +41,7 @@ describe('teams and sites in Chromium', () => {
     await page.getByLabel('Gear bottom (m below surface)').fill('9');
     await page.getByRole('button', { name: 'Create site' }).click();
     await page.waitForURL(/\/sites$/);
-    await expect.poll(() => page.getByRole('cell', { name: /Gannet Reef lines/ }).isVisible()).toBe(true);
+    await expect.poll(() => page.getByRole('link', { name: 'Gannet Reef lines', exact: true }).isVisible()).toBe(true);
     await screenshots(page, 'sites');
     await page.close();
   }, 120_000);

@@ -114,6 +114,7 @@ export class Browser {
     if (body !== undefined) headers['content-type'] = 'application/json';
     const response = await this.request(`${appBaseUrl}/api${path}`, { method, headers, body: body === undefined ? undefined : JSON.stringify(body) });
     const text = await response.text();
-    return { status: response.status, json: text ? JSON.parse(text) : null };
+    const isJson = (response.headers.get('content-type') ?? '').includes('json');
+    return { status: response.status, json: text && isJson ? JSON.parse(text) : null };
   }
 }

@@ -46,6 +46,8 @@ export interface TeamWorld {
   userIds: Record<string, string>;
   smtp: SmtpStandIn;
   identity: RunningIdentityStandIn;
+  /** Restarts the app on the same port with other deps (sessions live in the database and survive). */
+  restartApp(extra: Partial<AppDeps>): Promise<void>;
   /** A browser signed in as that person (cached per key). */
   as(key: string): Promise<Browser>;
   close(): Promise<void>;
@@ -79,7 +81,7 @@ export async function startTeamWorld(extra: Partial<AppDeps> = {}): Promise<Team
     cookieKeys: ['identity-test-cookie-key-0123456789'],
     clients: [{ clientId: TEST_CLIENT_ID, clientSecret: TEST_CLIENT_SECRET, redirectUris: [`${baseUrl}/auth/callback`], postLogoutRedirectUris: [`${baseUrl}/`] }],
   });
-  const app = await startTestApp(db, { port: appPort, issuerUrl: identity.issuer, smtpUrl: smtp.url, extra });
+  let app = await startTestApp(db, { port: appPort, issuerUrl: identity.issuer, smtpUrl: smtp.url, extra });
 
   const browsers = new Map<string, Browser>();
   return {
@@ -100,6 +102,11 @@ export async function startTeamWorld(extra: Partial<AppDeps> = {}): Promise<Team
       await browser.signIn(baseUrl, email, PASSWORD);
       browsers.set(key, browser);
       return browser;
+    },
+    async restartApp(next) {
+      await app.close();
+      app.mailerClose();
+      app = await startTestApp(db, { port: appPort, issuerUrl: identity.issuer, smtpUrl: smtp.url, extra: { ...extra, ...next } });
     },
     async close() {
       await app.close();

@@ -2,6 +2,10 @@ import { createHash, randomBytes } from 'node:crypto';
 import { readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { notifyOnStored } from '../../server/forecasts/notify.ts';
+import { runForecastJob } from '../../server/forecasts/run-forecast.ts';
+import { siteTideSource } from '../../server/forecasts/site-tide-source.ts';
+import { organismParamsSchema } from '../../shared/schemas/organism.schema.ts';
 import { Browser } from '../helpers/browser.ts';
 import { SITE_VALUES, startTeamWorld, type TeamWorld } from '../helpers/team-world.ts';
 
@@ -14,7 +18,7 @@ interface RouteCase {
   route: string;
   /** The concrete path for one call (may set up data first). */
   path: (w: TeamWorld) => string | Promise<string>;
-  body?: unknown;
+  body?: unknown | ((w: TeamWorld) => unknown);
   expect: Record<Subject, number>;
 }
 
@@ -40,6 +44,52 @@ async function spareMember(w: TeamWorld): Promise<string> {
 async function spareSite(w: TeamWorld): Promise<string> {
   return (await w.database.db.insertInto('sites').values({ ...SITE_VALUES, organisation_id: w.orgA, name: `Spare ${siteCounter++}` }).returning('id').executeTakeFirstOrThrow()).id;
 }
+
+const scientists = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: 403, biologistA: status, managerA: status, ownerA: status });
+
+async function spareSet(w: TeamWorld): Promise<string> {
+  const db = w.database.db;
+  const latest = await db.selectFrom('constituent_sets').select((eb) => eb.fn.max('version').as('v')).where('site_id', '=', w.siteA).executeTakeFirst();
+  const row = await db
+    .insertInto('constituent_sets')
+    .values({ organisation_id: w.orgA, site_id: w.siteA, version: Number(latest?.v ?? 0) + 1, source: 'manual', kind: 'current', current_constituents: JSON.stringify([{ name: 'M2', major: 0.3, phaseDeg: 100 }]), current_axis_deg: null })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return row.id;
+}
+
+let forecastOfA: Promise<{ forecastId: string; profileId: string }> | undefined;
+/** One real forecast of organisation A's site (made once): set, profile, run, engine. */
+function demoForecast(w: TeamWorld) {
+  forecastOfA ??= (async () => {
+    const db = w.database.db;
+    const setId = await spareSet(w);
+    await db.updateTable('sites').set({ active_constituent_set_id: setId }).where('id', '=', w.siteA).execute();
+    const profile = await db.insertInto('organism_profiles').values({ organisation_id: w.orgA, name: 'Table diatom', taxon: 'Thalassiosira sp.' }).returning('id').executeTakeFirstOrThrow();
+    const version = await db
+      .insertInto('organism_profile_versions')
+      .values({ profile_id: profile.id, organisation_id: w.orgA, version: 1, params: JSON.stringify(organismParamsSchema.parse({ settlingVelocityMPerDay: 3, initialCellsPerL: 1000, triggerCellsPerL: 500 })) })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await db.insertInto('site_organisms').values({ site_id: w.siteA, profile_id: profile.id }).execute();
+    const run = await db
+      .insertInto('forecast_runs')
+      .values({ organisation_id: w.orgA, site_id: w.siteA, profile_version_id: version.id, constituent_set_id: setId, forecast_start: new Date('2026-12-01T00:00:00Z'), horizon_days: 3, trigger: 'manual' })
+      .returning('id')
+      .executeTakeFirstOrThrow();
+    await runForecastJob({ db, tides: siteTideSource({ db }), onStored: notifyOnStored({ db, appBaseUrl: w.baseUrl }) }, run.id);
+    const forecast = await db.selectFrom('forecasts').select('id').where('run_id', '=', run.id).executeTakeFirstOrThrow();
+    return { forecastId: forecast.id, profileId: profile.id };
+  })();
+  return forecastOfA;
+}
+
+async function spareAlert(w: TeamWorld): Promise<string> {
+  const row = await w.database.db.insertInto('alerts').values({ organisation_id: w.orgA, site_id: w.siteA, kind: 'gear_trigger', message: 'test alert' }).returning('id').executeTakeFirstOrThrow();
+  return row.id;
+}
+
+const tides = (w: TeamWorld) => `/orgs/${w.orgA}/sites/${w.siteA}/tides`;
 
 const everyone = (status: number, anonymous = 401): Record<Subject, number> => ({ anonymous, ownerB: status, crewA: status, biologistA: status, managerA: status, ownerA: status });
 const members = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: status, biologistA: status, managerA: status, ownerA: status });
@@ -68,6 +118,56 @@ export const ROUTE_TABLE: RouteCase[] = [
   { route: 'GET /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}`, expect: members(200) },
   { route: 'PATCH /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}`, body: { gearBottomM: 9 }, expect: managers(200) },
   { route: 'POST /orgs/:orgId/sites/:siteId/archive', path: async (w) => `/orgs/${w.orgA}/sites/${await spareSite(w)}/archive`, expect: managers(200) },
+
+  // Site tides.
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/sets', path: (w) => `${tides(w)}/sets`, expect: members(200) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/sets', path: (w) => `${tides(w)}/sets`, body: { current: { axisDeg: null, constituents: [{ name: 'M2', major: 0.3, phaseDeg: 100 }] } }, expect: managers(201) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/sets/:setId', path: async (w) => `${tides(w)}/sets/${await spareSet(w)}`, expect: members(200) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/sets/:setId/activate', path: async (w) => `${tides(w)}/sets/${await spareSet(w)}/activate`, expect: managers(200) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/active', path: (w) => `${tides(w)}/active`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/preview', path: (w) => `${tides(w)}/preview`, expect: members(200) },
+  // No tide feed in this world: past authorisation the answer is 503.
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/feed/stations', path: (w) => `${tides(w)}/feed/stations`, expect: members(503) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/feed/fetch', path: (w) => `${tides(w)}/feed/fetch`, body: {}, expect: managers(503) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/feed/refreshes', path: (w) => `${tides(w)}/feed/refreshes`, expect: members(200) },
+  // JSON instead of multipart: past authorisation the answer is 400 "attach the CSV in the field file".
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/uploads/constituents', path: (w) => `${tides(w)}/uploads/constituents`, body: { kind: 'level' }, expect: managers(400) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/analyses', path: (w) => `${tides(w)}/analyses`, body: {}, expect: managers(400) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/tides/sets/from-record', path: (w) => `${tides(w)}/sets/from-record`, body: {}, expect: managers(400) },
+
+  // Organism profiles, watched organisms, forecasts and runs.
+  { route: 'GET /orgs/:orgId/profiles', path: (w) => `/orgs/${w.orgA}/profiles`, expect: members(200) },
+  {
+    route: 'POST /orgs/:orgId/profiles',
+    path: (w) => `/orgs/${w.orgA}/profiles`,
+    body: () => ({ name: `Profile ${siteCounter++}`, taxon: 'Skeletonema sp.', params: { settlingVelocityMPerDay: 1, initialCellsPerL: 100, triggerCellsPerL: 1000 } }),
+    expect: scientists(201),
+  },
+  { route: 'GET /orgs/:orgId/sites/:siteId/watch', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/watch`, expect: members(200) },
+  { route: 'PUT /orgs/:orgId/sites/:siteId/watch', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/watch`, body: async (w: TeamWorld) => ({ profileIds: [(await demoForecast(w)).profileId] }), expect: managers(200) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/forecasts/latest', path: async (w) => `/orgs/${w.orgA}/sites/${w.siteA}/forecasts/latest?profileId=${(await demoForecast(w)).profileId}`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/forecasts/:forecastId', path: async (w) => `/orgs/${w.orgA}/forecasts/${(await demoForecast(w)).forecastId}`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/forecasts/:forecastId/grid', path: async (w) => `/orgs/${w.orgA}/forecasts/${(await demoForecast(w)).forecastId}/grid`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/forecasts/:forecastId/download.csv', path: async (w) => `/orgs/${w.orgA}/forecasts/${(await demoForecast(w)).forecastId}/download.csv`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/forecasts/:forecastId/download.json', path: async (w) => `/orgs/${w.orgA}/forecasts/${(await demoForecast(w)).forecastId}/download.json`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/runs', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/runs`, expect: managers(200) },
+  // No queue in this world: past authorisation the answer is 503.
+  { route: 'POST /orgs/:orgId/sites/:siteId/runs', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/runs`, body: {}, expect: managers(503) },
+  { route: 'GET /orgs/:orgId/alerts', path: (w) => `/orgs/${w.orgA}/alerts`, expect: members(200) },
+  { route: 'POST /orgs/:orgId/alerts/:alertId/ack', path: async (w) => `/orgs/${w.orgA}/alerts/${await spareAlert(w)}/ack`, expect: managers(204) },
+  { route: 'GET /me/mail-settings', path: () => '/me/mail-settings', expect: everyone(200) },
+  { route: 'PUT /me/mail-settings', path: () => '/me/mail-settings', body: { digestEnabled: true, digestLocalTime: '07:00', timeZone: 'Europe/London', alertsEnabled: true }, expect: everyone(200) },
+  // Public, by secret token: an unknown token is refused whoever asks.
+  { route: 'GET /mail/unsubscribe/:token', path: () => '/mail/unsubscribe/not-a-real-token', expect: everyone(404, 404) },
+
+  // Billing.
+  { route: 'GET /orgs/:orgId/billing', path: (w) => `/orgs/${w.orgA}/billing`, expect: members(200) },
+  // A plan that does not exist: the owner gets past authorisation to the check (400) and no payments call is made.
+  { route: 'POST /orgs/:orgId/billing/checkout', path: (w) => `/orgs/${w.orgA}/billing/checkout`, body: { plan: 'no-such-plan', interval: 'month' }, expect: owners(400) },
+  // No subscription yet: the owner gets past authorisation to the check (409).
+  { route: 'POST /orgs/:orgId/billing/portal', path: (w) => `/orgs/${w.orgA}/billing/portal`, expect: owners(409) },
+  // Called by the payments service, not by people: an unsigned call is refused (400) whoever sends it.
+  { route: 'POST /billing/webhook', path: () => '/billing/webhook', expect: everyone(400, 400) },
 ];
 
 /** Cross-organisation probes: an id of organisation B under A's path, and B's path itself. */
@@ -75,12 +175,14 @@ const CROSS_CASES: RouteCase[] = [
   { route: 'GET /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}`, expect: { ...members(404) } },
   { route: 'PATCH /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}`, body: { gearBottomM: 9 }, expect: { ...managers(404), crewA: 403, biologistA: 403 } },
   { route: 'GET /orgs/:orgId/sites', path: (w) => `/orgs/${w.orgB}/sites`, expect: { anonymous: 401, ownerB: 200, crewA: 404, biologistA: 404, managerA: 404, ownerA: 404 } },
+  { route: 'GET /orgs/:orgId/sites/:siteId/tides/sets', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}/tides/sets`, expect: members(404) },
+  { route: 'GET /orgs/:orgId/forecasts/:forecastId', path: async (w) => `/orgs/${w.orgB}/forecasts/${(await demoForecast(w)).forecastId}`, expect: { anonymous: 401, ownerB: 404, crewA: 404, biologistA: 404, managerA: 404, ownerA: 404 } },
 ];
 
 async function call(w: TeamWorld, subject: Subject, c: RouteCase) {
   const browser = subject === 'anonymous' ? new Browser() : await w.as(subject);
   const [method] = c.route.split(' ');
-  const body = typeof c.body === 'function' ? (c.body as () => unknown)() : c.body;
+  const body = typeof c.body === 'function' ? await (c.body as (w: TeamWorld) => unknown)(w) : c.body;
   return browser.api(w.baseUrl, method!, await c.path(w), body);
 }
 
@@ -115,6 +217,11 @@ describe('authorisation over every API route', () => {
       'invitations.routes.ts': ['/orgs/:orgId/invitations', '/invitations'],
       'sites.routes.ts': ['/orgs/:orgId/sites'],
       'audit.routes.ts': ['/orgs/:orgId/audit'],
+      'tides.routes.ts': ['/orgs/:orgId/sites/:siteId/tides'],
+      'billing.routes.ts': ['', '/orgs/:orgId/billing'],
+      'forecasts.routes.ts': ['/orgs/:orgId'],
+      'alerts.routes.ts': ['/orgs/:orgId/alerts'],
+      'mail-settings.routes.ts': [''],
     };
     const declared = new Set(ROUTE_TABLE.map((c) => c.route));
     const serverDir = path.resolve(import.meta.dirname, '../../server');

@@ -24,7 +24,11 @@ describe('migrations', () => {
     const applied = await migrateToLatest(database.db);
     expect(applied.length).toBeGreaterThan(0);
     expect(applied.every((r) => r.status === 'Success')).toBe(true);
-    expect(await tableNames(database.db)).toEqual(['accounts', 'app_sessions', 'audit_events', 'invitations', 'memberships', 'organisations', 'sites', 'users']);
+    expect(await tableNames(database.db)).toEqual([
+      'accounts', 'alerts', 'app_sessions', 'audit_events', 'billing_accounts', 'billing_events', 'constituent_sets', 'forecast_runs', 'forecasts',
+      'invitations', 'mail_log', 'mail_settings', 'memberships', 'organisations', 'organism_profile_versions', 'organism_profiles', 'schedule_slots',
+      'site_organisms', 'sites', 'tide_feed_refreshes', 'users',
+    ]);
   });
 
   it('go down to nothing, leaving no table behind', async () => {
