@@ -20,6 +20,8 @@ import { siteRoutes } from './sites/sites.routes.ts';
 import { forecastRoutes, type ForecastsDeps } from './forecasts/forecasts.routes.ts';
 import { alertRoutes } from './forecasts/alerts.routes.ts';
 import { mailSettingsRoutes } from './mail/mail-settings.routes.ts';
+import { samplingRoutes, type SamplingDeps } from './sampling/sampling.routes.ts';
+import { labRoutes, type LabDeps } from './lab/lab.routes.ts';
 import { siteTideRoutes, type TidesDeps } from './tides/tides.routes.ts';
 import { billingRoutes, billingWebhookRoutes, type BillingDeps } from './billing/billing.routes.ts';
 
@@ -37,6 +39,10 @@ export interface AppDeps {
   tides?: Omit<TidesDeps, 'db'>;
   /** Queue, tides and subscription gate for forecasts (default: read-only, run-now answers 503). */
   forecasts?: Omit<ForecastsDeps, 'db'>;
+  /** Extra deps of the sampling-plan area. */
+  sampling?: Omit<SamplingDeps, 'db'>;
+  /** Extra deps of the biologist's workbench area. */
+  lab?: Omit<LabDeps, 'db'>;
   /** Extra deps of the billing area (defaults: just the database). */
   billing?: Omit<BillingDeps, 'db'>;
   /** Folder of the built client; served with a fallback to index.html for client routes. */
@@ -104,6 +110,8 @@ export function createApp(deps: AppDeps): Express {
   api.use('/orgs/:orgId/billing', billingRoutes(billing));
   api.use('/orgs/:orgId/alerts', alertRoutes(deps.db));
   api.use('/orgs/:orgId', forecastRoutes({ db: deps.db, ...deps.forecasts }));
+  api.use('/orgs/:orgId', samplingRoutes({ db: deps.db, ...deps.sampling } as SamplingDeps));
+  api.use('/orgs/:orgId', labRoutes({ db: deps.db, ...deps.lab } as LabDeps));
   api.use('/orgs/:orgId/invitations', organisationInvitationRoutes({ db: deps.db, mailer: deps.mailer, appBaseUrl: deps.appBaseUrl }));
   api.use('/orgs/:orgId/audit', auditRoutes(deps.db));
   api.use(notFound);

@@ -87,10 +87,12 @@ export interface AppSessionTable {
 
 import type { BillingTables } from './tables/billing.ts';
 import type { ForecastTables } from './tables/forecasts.ts';
+import type { LabTables } from './tables/lab.ts';
+import type { SamplingTables } from './tables/sampling.ts';
 import type { TidesTables } from './tables/tides.ts';
 
 /** Every table; each product area declares its own in server/db/tables/. */
-export interface Database extends TidesTables, ForecastTables, BillingTables {
+export interface Database extends TidesTables, ForecastTables, BillingTables, SamplingTables, LabTables {
   organisations: OrganisationTable;
   users: UserTable;
   memberships: MembershipTable;

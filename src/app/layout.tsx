@@ -9,6 +9,10 @@ function navFor(orgId: string, role: string) {
   const items = [
     { to: `/o/${orgId}`, label: 'Overview', end: true },
     { to: `/o/${orgId}/sites`, label: 'Sites', end: false },
+    { to: `/o/${orgId}/plan`, label: 'Sampling plan', end: false },
+    { to: `/o/${orgId}/alerts`, label: 'Alerts', end: false },
+    { to: `/o/${orgId}/profiles`, label: 'Organisms', end: false },
+    { to: `/o/${orgId}/lab`, label: 'Lab results', end: false },
   ];
   if (canManage(role as never)) items.push({ to: `/o/${orgId}/team`, label: 'Team', end: false });
   if (role === 'owner') items.push({ to: `/o/${orgId}/audit`, label: 'Audit log', end: false }, { to: `/o/${orgId}/billing`, label: 'Billing', end: false });

@@ -1,0 +1,3 @@
+/** Tables of the lab area. Filled in by that area. */
+// eslint-disable-next-line @typescript-eslint/no-empty-object-type
+export interface LabTables {}

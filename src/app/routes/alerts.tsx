@@ -1,0 +1,4 @@
+// Placeholder until the alerts screen is built.
+export default function Placeholder() {
+  return <p className="text-ink-soft">This screen is being built.</p>;
+}

@@ -1,0 +1,4 @@
+// Placeholder until the site-forecast screen is built.
+export default function Placeholder() {
+  return <p className="text-ink-soft">This screen is being built.</p>;
+}
