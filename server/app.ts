@@ -22,6 +22,7 @@ import { alertRoutes } from './forecasts/alerts.routes.ts';
 import { mailSettingsRoutes } from './mail/mail-settings.routes.ts';
 import { samplingRoutes, type SamplingDeps } from './sampling/sampling.routes.ts';
 import { labRoutes, type LabDeps } from './lab/lab.routes.ts';
+import { profileRoutes } from './profiles/profiles.routes.ts';
 import { siteTideRoutes, type TidesDeps } from './tides/tides.routes.ts';
 import { billingRoutes, billingWebhookRoutes, type BillingDeps } from './billing/billing.routes.ts';
 
@@ -109,6 +110,7 @@ export function createApp(deps: AppDeps): Express {
   api.use('/orgs/:orgId/sites', siteRoutes(deps.db));
   api.use('/orgs/:orgId/billing', billingRoutes(billing));
   api.use('/orgs/:orgId/alerts', alertRoutes(deps.db));
+  api.use('/orgs/:orgId/profiles', profileRoutes(deps.db));
   api.use('/orgs/:orgId', forecastRoutes({ db: deps.db, ...deps.forecasts }));
   api.use('/orgs/:orgId', samplingRoutes({ db: deps.db, ...deps.sampling } as SamplingDeps));
   api.use('/orgs/:orgId', labRoutes({ db: deps.db, ...deps.lab } as LabDeps));

@@ -4,7 +4,6 @@ import type PgBoss from 'pg-boss';
 import { z } from 'zod';
 import { decodeGrid } from '../../shared/forecast/grid-codec.ts';
 import { runNowSchema, watchSchema } from '../../shared/schemas/forecast.schema.ts';
-import { profileInputSchema } from '../../shared/schemas/organism.schema.ts';
 import { ALL_ROLES, requireMember } from '../auth/authorize.ts';
 import { recordAudit } from '../audit/audit.repository.ts';
 import type { Db } from '../db/connect.ts';
@@ -14,7 +13,6 @@ import { findSite } from '../sites/sites.repository.ts';
 import { forecastCsvLines } from './forecast-csv.ts';
 import * as repo from './forecasts.repository.ts';
 import { prepareSiteRuns } from './prepare-runs.ts';
-import { insertProfile, listProfiles } from './profiles.repository.ts';
 import type { TideSource } from './tide-source.ts';
 
 export interface ForecastsDeps {
@@ -31,13 +29,12 @@ const forecastParams = z.object({ orgId: z.uuid(), forecastId: z.uuid() });
 const latestQuery = z.object({ profileId: z.uuid({ error: 'profileId must be the id of an organism profile' }) });
 const RUN_NOW_STEP_MS = 10 * 60_000;
 
-/** /api/orgs/:orgId/...: organism profiles (data), watched organisms, forecasts, runs. */
+/** /api/orgs/:orgId/...: watched organisms, forecasts, runs. */
 export function forecastRoutes(deps: ForecastsDeps): Router {
   const { db } = deps;
   const router = Router({ mergeParams: true });
   const readers = requireMember(db, ALL_ROLES);
   const managers = requireMember(db, ['owner', 'manager']);
-  const scientists = requireMember(db, ['owner', 'manager', 'biologist']);
   const gate: RequestHandler = deps.forecastGate ?? ((_req, _res, next) => next());
 
   const siteOr404 = async (orgId: string, siteId: string) => {
@@ -45,28 +42,6 @@ export function forecastRoutes(deps: ForecastsDeps): Router {
     if (!site) throw new AppError('not_found', 'No such site in this organisation.');
     return site;
   };
-
-  router.get('/profiles', readers, async (req, res) => {
-    res.json({ profiles: await listProfiles(db, req.membership!.organisationId) });
-  });
-  router.post('/profiles', scientists, validate({ body: profileInputSchema }), async (req, res) => {
-    const orgId = req.membership!.organisationId;
-    const created = await db
-      .transaction()
-      .execute(async (trx) => {
-        const ids = await insertProfile(trx, { organisationId: orgId, ...req.body, createdBy: req.user!.id });
-        await recordAudit(trx, { organisationId: orgId, actorUserId: req.user!.id, action: 'profile.created', subject: req.body.name, details: ids });
-        return ids;
-      })
-      .catch((error: unknown) => {
-        if (error && typeof error === 'object' && 'constraint' in error && error.constraint === 'organism_profiles_org_name_unique') {
-          throw new AppError('conflict', 'A profile with this name exists already. Choose another name.');
-        }
-        throw error;
-      });
-    const profile = (await listProfiles(db, orgId)).find((p) => p.id === created.profileId);
-    res.status(201).json(profile);
-  });
 
   router.get('/sites/:siteId/watch', readers, validate({ params: siteParams }), async (req, res) => {
     await siteOr404(req.membership!.organisationId, String(req.params.siteId));

@@ -1,6 +1,6 @@
 import type PgBoss from 'pg-boss';
 import type { Db } from '../db/connect.ts';
-import { watchedVersions } from './profiles.repository.ts';
+import { watchedVersions } from '../profiles/profiles.repository.ts';
 import { enqueueRun } from './queue.ts';
 import type { TideSource } from './tide-source.ts';
 

@@ -10,7 +10,7 @@ import { parseCase } from '../../shared/model/case-schema.ts';
 import { advanceRun, createRun, finishRun, startRun } from '../../shared/model/run.ts';
 import type { Db } from '../db/connect.ts';
 import { organismParamsSchema } from '../../shared/schemas/organism.schema.ts';
-import { findVersion, markVersionUsed } from './profiles.repository.ts';
+import { findVersion, markVersionUsed } from '../profiles/profiles.repository.ts';
 import type { ActiveCurrentSet, TideSource } from './tide-source.ts';
 
 export interface ForecastJobDeps {

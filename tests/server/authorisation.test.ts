@@ -220,6 +220,9 @@ describe('authorisation over every API route', () => {
       'tides.routes.ts': ['/orgs/:orgId/sites/:siteId/tides'],
       'billing.routes.ts': ['', '/orgs/:orgId/billing'],
       'forecasts.routes.ts': ['/orgs/:orgId'],
+      'profiles.routes.ts': ['/orgs/:orgId/profiles'],
+      'sampling.routes.ts': ['/orgs/:orgId'],
+      'lab.routes.ts': ['/orgs/:orgId'],
       'alerts.routes.ts': ['/orgs/:orgId/alerts'],
       'mail-settings.routes.ts': [''],
     };
