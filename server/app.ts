@@ -7,6 +7,7 @@ import { pinoHttp } from 'pino-http';
 import { auditRoutes } from './audit/audit.routes.ts';
 import { csrfGuard } from './auth/csrf.ts';
 import { loadCurrentUser, oidcRelyingParty, type OidcSettings } from './auth/oidc.ts';
+import { keepSessionCookieWhenUnreadable, refuseWhenSessionsUnreadable, trackSessionReads } from './auth/session-store.ts';
 import type { Db } from './db/connect.ts';
 import { errorMiddleware, notFound } from './http/error-middleware.ts';
 import { healthRoutes } from './http/health.routes.ts';
@@ -89,7 +90,9 @@ export function createApp(deps: AppDeps): Express {
     }),
   );
 
+  app.use(trackSessionReads);
   app.use(oidcRelyingParty(deps.db, { ...deps.oidc, appBaseUrl: deps.appBaseUrl }));
+  app.use(keepSessionCookieWhenUnreadable);
   if (deps.devMail) app.use(devMailRoutes(deps.devMail));
 
   const tides: TidesDeps = { db: deps.db, ...deps.tides } as TidesDeps;
@@ -100,6 +103,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(billingWebhookRoutes(billing));
   api.use(express.json({ limit: '1mb' }));
   api.use(healthRoutes(deps.db, deps.version));
+  api.use(refuseWhenSessionsUnreadable);
   api.use(loadCurrentUser(deps.db));
   api.use(csrfGuard(new URL(deps.appBaseUrl).origin));
   api.use(accountRoutes(deps.db));

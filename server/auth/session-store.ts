@@ -1,4 +1,33 @@
+import { AsyncLocalStorage } from 'node:async_hooks';
+import type { RequestHandler } from 'express';
 import type { Db } from '../db/connect.ts';
+import { AppError } from '../http/app-error.ts';
+
+/**
+ * The sign-in library treats a session it cannot read as no session; this context lets a request
+ * know that its session could not be read because the database failed, so it answers 503, not 401.
+ */
+const sessionReads = new AsyncLocalStorage<{ failed: boolean }>();
+
+/** Before the sign-in middleware: opens the per-request context. */
+export const trackSessionReads: RequestHandler = (_req, _res, next) => sessionReads.run({ failed: false }, next);
+
+/**
+ * After it: when the session could not be read (database down), the library would clear the
+ * session cookie as if the session had ended; keep it, so an outage signs nobody out.
+ */
+export const keepSessionCookieWhenUnreadable: RequestHandler = (_req, res, next) => {
+  if (sessionReads.getStore()?.failed) res.clearCookie = () => res;
+  next();
+};
+
+/** On API routes: a request whose session read failed gets 503 instead of being treated as signed out. */
+export const refuseWhenSessionsUnreadable: RequestHandler = (_req, _res, next) => {
+  if (sessionReads.getStore()?.failed) {
+    return next(new AppError('service_unavailable', 'The database is not reachable right now, so your session could not be read. Try again in a minute.'));
+  }
+  next();
+};
 
 type Callback<T = void> = (error: unknown, value?: T) => void;
 
@@ -23,7 +52,14 @@ export class PostgresSessionStore {
       .where('sid', '=', sid)
       .where('expire', '>', new Date())
       .executeTakeFirst()
-      .then((row) => callback(null, (row?.sess as StoredSession | undefined) ?? null), callback);
+      .then(
+        (row) => callback(null, (row?.sess as StoredSession | undefined) ?? null),
+        (error: unknown) => {
+          const context = sessionReads.getStore();
+          if (context) context.failed = true;
+          callback(error);
+        },
+      );
   }
 
   set(sid: string, session: StoredSession, callback: Callback): void {
@@ -38,6 +74,8 @@ export class PostgresSessionStore {
   }
 
   destroy(sid: string, callback: Callback): void {
+    // A session that could not be read (database down) was not ended: keep it.
+    if (sessionReads.getStore()?.failed) return callback(null);
     this.db
       .deleteFrom('app_sessions')
       .where('sid', '=', sid)

@@ -81,6 +81,13 @@ const optionsSchema = z.object({
   cookieKeys: z.array(z.string().min(16, 'cookie keys need at least 16 characters')).min(1),
 });
 
+/** A pool whose idle clients losing the server (database restarted) do not crash the process. */
+function quietPool(connectionString: string): pg.Pool {
+  const pool = new pg.Pool({ connectionString, max: 4 });
+  pool.on('error', () => {});
+  return pool;
+}
+
 function originsOf(clients: readonly StandInClient[]): string[] {
   const uris = clients.flatMap((c) => [...c.redirectUris, ...c.postLogoutRedirectUris]);
   return [...new Set(uris.map((u) => new URL(u).origin))];
@@ -109,7 +116,7 @@ export async function startIdentityStandIn(options: IdentityStandInOptions): Pro
   const ownDb = typeof options.db === 'string';
   const db: HostDb =
     typeof options.db === 'string'
-      ? new Kysely<StandInDatabase>({ dialect: new PostgresDialect({ pool: new pg.Pool({ connectionString: options.db, max: 4 }) }) })
+      ? new Kysely<StandInDatabase>({ dialect: new PostgresDialect({ pool: quietPool(options.db) }) })
       : options.db;
 
   await prepareDummyHash();
