@@ -29,7 +29,25 @@ export async function openDatabase(config: Config, log: (line: string) => void =
   return { url: cluster.urlFor(LOCAL_DATABASE_NAME), embedded: true, stop: () => cluster.stop() };
 }
 
+async function answers(url: string): Promise<boolean> {
+  const { default: pg } = await import('pg');
+  const client = new pg.Client({ connectionString: url, connectionTimeoutMillis: 2000 });
+  try {
+    await client.connect();
+    await client.end();
+    return true;
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Runs `work` against DATABASE_URL, or against the project's own PostgreSQL: the one a running
+ * `npm start` serves (left running), else started for the work and stopped after it.
+ */
 export async function withDatabaseUrl<T>(config: Config, work: (url: string) => Promise<T>): Promise<T> {
+  const running = `postgres://postgres@127.0.0.1:${config.PLANKTIDE_PG_PORT}/${LOCAL_DATABASE_NAME}`;
+  if (!config.DATABASE_URL && (await answers(running))) return work(running);
   const handle = await openDatabase(config, console.log);
   try {
     return await work(handle.url);
