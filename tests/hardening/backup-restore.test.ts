@@ -1,30 +1,15 @@
 import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
-import { sql } from 'kysely';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Db } from '../../server/db/connect.ts';
 import { prepareSiteRuns } from '../../server/forecasts/prepare-runs.ts';
 import { startQueue } from '../../server/forecasts/queue.ts';
 import { runForecastJob } from '../../server/forecasts/run-forecast.ts';
 import { siteTideSource } from '../../server/forecasts/site-tide-source.ts';
 import { backupDatabase, restoreDatabase } from '../../server/postgres/backup.ts';
 import { insertForecastSite, insertOrganisation } from '../helpers/forecast-fixture.ts';
+import { fingerprint } from '../helpers/db-fingerprint.ts';
 import { createTestDatabase, type TestDatabase } from '../helpers/test-database.ts';
-
-/** Row count and a checksum of the contents of every table of the product (pg-boss's own queue excluded). */
-async function fingerprint(db: Db): Promise<Record<string, { rows: number; md5: string | null }>> {
-  const tables = await sql<{ schema: string; name: string }>`
-    select table_schema as schema, table_name as name from information_schema.tables
-    where table_schema in ('public', 'identity_standin') and table_type = 'BASE TABLE' order by 1, 2`.execute(db);
-  const out: Record<string, { rows: number; md5: string | null }> = {};
-  for (const t of tables.rows) {
-    const ref = sql.table(`${t.schema}.${t.name}`);
-    const row = await sql<{ rows: number; md5: string | null }>`select count(*)::int as rows, md5(string_agg(x::text, '|' order by x::text)) as md5 from ${ref} as x`.execute(db);
-    out[`${t.schema}.${t.name}`] = row.rows[0]!;
-  }
-  return out;
-}
 
 describe('db:backup and db:restore', () => {
   let source: TestDatabase;
