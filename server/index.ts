@@ -56,7 +56,7 @@ function banner(config: Config, database: DatabaseHandle, services: Services, is
     `  Mail:       ${services.smtp ? `local SMTP stand-in at ${smtpUrl}; caught mail at ${url}/dev/mail` : smtpUrl.replace(/\/\/[^@]*@/, '//***@')}`,
     `  Payments:   ${services.billing?.describe ?? 'off'}`,
     `  Tide feed:  ${services.tideFeed ? `local stand-in at ${services.tideFeed.url}` : 'TIDE_FEED_URL'}`,
-    `  Forecasts:  scheduler ${config.PLANKTIDE_SCHEDULER}, ${config.PLANKTIDE_WORKERS} worker(s) in this process; more with \`npm run worker\``,
+    `  Forecasts:  scheduler ${config.PLANKTIDE_SCHEDULER}, ${config.PLANKTIDE_WORKERS} worker process(es); more with \`npm run worker\``,
     ...(services.identity
       ? ['  Demo accounts (password "' + DEMO_PASSWORD + '"):', ...DEMO_PEOPLE.map((p) => `    ${p.email.padEnd(28)} ${p.role}`)]
       : []),
@@ -160,7 +160,7 @@ async function main(): Promise<void> {
       tideFeedUrl = services.tideFeed.url;
     }
     const feed = createTideFeedClient({ baseUrl: tideFeedUrl, apiKey: config.TIDE_FEED_API_KEY, timeoutMs: config.TIDE_FEED_TIMEOUT_MS });
-    services.forecasts = await startForecastServices({ config, db, databaseUrl: database.url, feed, mailer, logger });
+    services.forecasts = await startForecastServices({ config, db, databaseUrl: database.url, feed, feedUrl: tideFeedUrl, smtpUrl, mailer, logger });
     if (seeded) {
       const queued = await queueFirstForecasts({ db, boss: services.forecasts.boss, tides: services.forecasts.tides });
       say(`Queued ${queued} first demo forecast(s); they appear within a minute or two.`);

@@ -37,12 +37,17 @@ interface StoredSession {
 }
 
 const DEFAULT_TTL_S = 24 * 3600;
+/** A session whose data did not change is written back at most this often (rolling expiry refresh). */
+const TOUCH_INTERVAL_MS = 5 * 60_000;
 
 /**
  * An express-session compatible store (get/set/destroy) over the app_sessions table, used by the
  * OpenID Connect relying party so that sessions live in PostgreSQL and can be ended server-side.
  */
 export class PostgresSessionStore {
+  /** sid → when it was last written and what its data was, to skip writes that only move the expiry. */
+  private readonly written = new Map<string, { at: number; data: string }>();
+
   constructor(private readonly db: Db) {}
 
   get(sid: string, callback: Callback<StoredSession | null>): void {
@@ -65,17 +70,30 @@ export class PostgresSessionStore {
   set(sid: string, session: StoredSession, callback: Callback): void {
     const expSeconds = session.header?.exp ?? Math.floor(Date.now() / 1000) + DEFAULT_TTL_S;
     const expire = new Date(expSeconds * 1000);
+    // Every request refreshes a rolling session; when only its expiry moved, write it back now and then.
+    const data = JSON.stringify(session.data ?? null);
+    const last = this.written.get(sid);
+    if (last && last.data === data && Date.now() - last.at < TOUCH_INTERVAL_MS) return callback(null);
+    if (this.written.size > 50_000) this.written.clear();
+    this.written.set(sid, { at: Date.now(), data });
     this.db
       .insertInto('app_sessions')
       .values({ sid, sess: JSON.stringify(session), expire })
       .onConflict((oc) => oc.column('sid').doUpdateSet({ sess: JSON.stringify(session), expire }))
       .execute()
-      .then(() => callback(null), callback);
+      .then(
+        () => callback(null),
+        (error: unknown) => {
+          this.written.delete(sid);
+          callback(error);
+        },
+      );
   }
 
   destroy(sid: string, callback: Callback): void {
     // A session that could not be read (database down) was not ended: keep it.
     if (sessionReads.getStore()?.failed) return callback(null);
+    this.written.delete(sid);
     this.db
       .deleteFrom('app_sessions')
       .where('sid', '=', sid)

@@ -1,3 +1,6 @@
+import { spawn, type ChildProcess } from 'node:child_process';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
 import cron from 'node-cron';
 import type PgBoss from 'pg-boss';
 import { queueSettingsFrom } from '../../jobs/queue-settings.ts';
@@ -7,13 +10,22 @@ import type { Logger } from '../logger.ts';
 import { sendDueDigests } from '../mail/digest.ts';
 import type { Mailer } from '../mail/mailer.ts';
 import type { TideFeedClient } from '../tides/tide-feed.client.ts';
-import { notifyOnStored } from './notify.ts';
 import { prepareSiteRuns, type PrepareDeps } from './prepare-runs.ts';
 import { startQueue } from './queue.ts';
 import { schedulerTick } from './scheduler.ts';
 import { siteTideSource } from './site-tide-source.ts';
 import type { TideSource } from './tide-source.ts';
-import { startForecastWorker } from './worker.ts';
+
+const PROJECT_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
+
+/** A forecast worker process (`npm run worker`): model runs never block this process's HTTP answers. */
+function spawnWorker(env: Record<string, string>, logger: Logger): ChildProcess {
+  const child = spawn(process.execPath, ['--import', 'tsx', 'jobs/worker.ts'], { cwd: PROJECT_ROOT, env: { ...process.env, ...env }, stdio: ['ignore', 'inherit', 'inherit'] });
+  child.once('exit', (code, signal) => {
+    if (code !== 0 && signal !== 'SIGTERM') logger.error({ code, signal }, 'forecast worker process exited');
+  });
+  return child;
+}
 
 export interface ForecastServices {
   boss: PgBoss;
@@ -22,26 +34,27 @@ export interface ForecastServices {
 }
 
 /**
- * What `npm start` runs besides HTTP: the shared queue, PLANKTIDE_WORKERS in-process workers, and
- * (PLANKTIDE_SCHEDULER=on) a node-cron task that each minute queues the sites whose local forecast
- * time has come and sends the digests that are due.
+ * What `npm start` runs besides HTTP: the shared queue, PLANKTIDE_WORKERS worker processes (the same
+ * as `npm run worker`), and (PLANKTIDE_SCHEDULER=on) a node-cron task that each minute queues the
+ * sites whose local forecast time has come and sends the digests that are due.
  */
-export async function startForecastServices(deps: { config: Config; db: Db; databaseUrl: string; feed: TideFeedClient; mailer: Mailer; logger: Logger }): Promise<ForecastServices> {
+export async function startForecastServices(deps: {
+  config: Config;
+  db: Db;
+  databaseUrl: string;
+  feed: TideFeedClient;
+  /** The URLs the worker processes reach the tide feed and mail service at. */
+  feedUrl: string;
+  smtpUrl: string;
+  mailer: Mailer;
+  logger: Logger;
+}): Promise<ForecastServices> {
   const { config, db, logger } = deps;
   const boss = await startQueue(deps.databaseUrl, queueSettingsFrom(config), (error) => logger.error({ err: error }, 'queue error'));
   const tides = siteTideSource({ db, feed: deps.feed });
-  const stops: (() => Promise<void>)[] = [];
+  const workers: ChildProcess[] = [];
   for (let i = 0; i < config.PLANKTIDE_WORKERS; i++) {
-    stops.push(
-      await startForecastWorker({
-        db,
-        boss,
-        tides,
-        logger: logger.child({ service: 'worker' }),
-        resolution: { layers: config.FORECAST_LAYERS, timeStepS: config.FORECAST_TIME_STEP_S },
-        onStored: notifyOnStored({ db, mailer: deps.mailer, appBaseUrl: config.APP_BASE_URL }),
-      }),
-    );
+    workers.push(spawnWorker({ DATABASE_URL: deps.databaseUrl, TIDE_FEED_URL: deps.feedUrl, SMTP_URL: deps.smtpUrl, APP_BASE_URL: config.APP_BASE_URL }, logger));
   }
   let task: ReturnType<typeof cron.schedule> | undefined;
   if (config.PLANKTIDE_SCHEDULER === 'on') {
@@ -61,7 +74,17 @@ export async function startForecastServices(deps: { config: Config; db: Db; data
     tides,
     async stop() {
       await task?.stop();
-      for (const stop of stops) await stop();
+      await Promise.all(
+        workers.map(
+          (child) =>
+            new Promise<void>((resolve) => {
+              if (child.exitCode !== null) return resolve();
+              child.once('exit', () => resolve());
+              child.kill('SIGTERM');
+              setTimeout(() => child.kill('SIGKILL'), 10_000).unref();
+            }),
+        ),
+      );
       await boss.stop({ graceful: true, wait: true, timeout: 5000 });
     },
   };
