@@ -47,8 +47,9 @@ export function decodeGrid(input: ArrayBuffer | Uint8Array): ForecastGrid {
   const headerEnd = Math.ceil((8 + headerLength) / 8) * 8;
   const expected = headerEnd + (2 * nz + 3 * nt) * 8 + 3 * nt * nz * 4;
   if (bytes.length !== expected) throw new GridFormatError(`Grid is ${bytes.length} bytes; its header asks for ${expected}.`);
-  // Copy into an aligned buffer so typed-array views are valid whatever the input's offset.
-  const body = bytes.slice(headerEnd).buffer;
+  // Copy into a fresh, aligned buffer so typed-array views are valid whatever the input's offset
+  // (a Node Buffer is a view into a larger pool: its slice() would not copy).
+  const body = new Uint8Array(bytes.subarray(headerEnd)).buffer;
   let offset = 0;
   const f64 = (n: number) => {
     const a = new Float64Array(body, offset, n);
