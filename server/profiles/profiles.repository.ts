@@ -1,5 +1,5 @@
-import type { Transaction } from 'kysely';
-import { organismParamsSchema, type OrganismParams, type Profile, type ProfileVersion } from '../../shared/schemas/organism.schema.ts';
+import { sql, type Transaction } from 'kysely';
+import { organismParamsSchema, type OrganismParams, type Profile, type ProfileDetail, type ProfileVersion } from '../../shared/schemas/organism.schema.ts';
 import type { Db } from '../db/connect.ts';
 import type { Database } from '../db/schema.ts';
 
@@ -48,6 +48,26 @@ export async function listProfiles(db: Executor, organisationId: string): Promis
   return rows.map((r) => ({ id: r.pid, name: r.name, taxon: r.taxon, latest: toVersionDto(r) }));
 }
 
+/** One profile of the organisation (archived ones too) with every version, newest first. */
+export async function findProfileDetail(db: Executor, organisationId: string, profileId: string): Promise<ProfileDetail | undefined> {
+  const profile = await db
+    .selectFrom('organism_profiles')
+    .select(['id', 'name', 'taxon', 'archived_at'])
+    .where('organisation_id', '=', organisationId)
+    .where('id', '=', profileId)
+    .executeTakeFirst();
+  if (!profile) return undefined;
+  const rows = await db
+    .selectFrom('organism_profile_versions as v')
+    .leftJoin('users as u', 'u.id', 'v.created_by')
+    .select([...versionColumns])
+    .where('v.profile_id', '=', profileId)
+    .orderBy('v.version', 'desc')
+    .execute();
+  const versions = rows.map(toVersionDto);
+  return { id: profile.id, name: profile.name, taxon: profile.taxon, archivedAt: profile.archived_at?.toISOString() ?? null, latest: versions[0]!, versions };
+}
+
 export async function insertProfile(trx: Executor, input: { organisationId: string; name: string; taxon: string; params: OrganismParams; note: string; createdBy: string | null }) {
   const profile = await trx.insertInto('organism_profiles').values({ organisation_id: input.organisationId, name: input.name, taxon: input.taxon }).returning('id').executeTakeFirstOrThrow();
   const version = await trx
@@ -56,6 +76,63 @@ export async function insertProfile(trx: Executor, input: { organisationId: stri
     .returning('id')
     .executeTakeFirstOrThrow();
   return { profileId: profile.id, versionId: version.id };
+}
+
+/**
+ * Locks the profile row for the rest of the transaction (so two edits of one profile run one after
+ * the other) and returns it with its latest version.
+ */
+export async function lockProfileForEdit(trx: Transaction<Database>, organisationId: string, profileId: string) {
+  const profile = await trx
+    .selectFrom('organism_profiles')
+    .select(['id', 'name', 'taxon', 'archived_at'])
+    .where('organisation_id', '=', organisationId)
+    .where('id', '=', profileId)
+    .forUpdate()
+    .executeTakeFirst();
+  if (!profile) return undefined;
+  const latest = await trx
+    .selectFrom('organism_profile_versions')
+    .select(['id', 'version', 'params', 'note', 'first_used_at'])
+    .where('profile_id', '=', profileId)
+    .orderBy('version', 'desc')
+    .limit(1)
+    .forUpdate()
+    .executeTakeFirstOrThrow();
+  return { profile, latest };
+}
+
+/** Whether a forecast run is queued or running with this version: it must not change under the run. */
+export async function versionHasPendingRun(trx: Executor, versionId: string): Promise<boolean> {
+  const row = await trx
+    .selectFrom('forecast_runs')
+    .select(sql<number>`1`.as('one'))
+    .where('profile_version_id', '=', versionId)
+    .where('status', 'in', ['queued', 'running'])
+    .limit(1)
+    .executeTakeFirst();
+  return row !== undefined;
+}
+
+export async function updateProfileFields(trx: Executor, profileId: string, fields: { name?: string; taxon?: string }): Promise<void> {
+  if (fields.name === undefined && fields.taxon === undefined) return;
+  await trx.updateTable('organism_profiles').set(fields).where('id', '=', profileId).execute();
+}
+
+export async function updateVersionInPlace(trx: Executor, versionId: string, fields: { params: OrganismParams; note: string }): Promise<void> {
+  await trx.updateTable('organism_profile_versions').set({ params: JSON.stringify(fields.params), note: fields.note }).where('id', '=', versionId).where('first_used_at', 'is', null).execute();
+}
+
+export async function insertVersion(trx: Executor, input: { organisationId: string; profileId: string; version: number; params: OrganismParams; note: string; createdBy: string | null }) {
+  return trx
+    .insertInto('organism_profile_versions')
+    .values({ profile_id: input.profileId, organisation_id: input.organisationId, version: input.version, params: JSON.stringify(input.params), note: input.note, created_by: input.createdBy })
+    .returning(['id', 'version'])
+    .executeTakeFirstOrThrow();
+}
+
+export async function archiveProfile(trx: Executor, profileId: string): Promise<void> {
+  await trx.updateTable('organism_profiles').set({ archived_at: new Date() }).where('id', '=', profileId).where('archived_at', 'is', null).execute();
 }
 
 /** A profile version with its profile's name and taxon, scoped to the organisation. */
