@@ -35,7 +35,7 @@ export async function apiGet<T>(path: string, schema: z.ZodType<T>, okStatuses: 
 }
 
 /** A write: JSON body, the anti-forgery header the server requires, and the parsed answer (or null for 204). */
-export async function apiSend<T>(method: 'POST' | 'PATCH' | 'DELETE', path: string, body?: unknown, schema?: z.ZodType<T>): Promise<T | null> {
+export async function apiSend<T>(method: 'POST' | 'PUT' | 'PATCH' | 'DELETE', path: string, body?: unknown, schema?: z.ZodType<T>): Promise<T | null> {
   const response = await fetch(`/api${path}`, {
     method,
     credentials: 'same-origin',
@@ -45,6 +45,13 @@ export async function apiSend<T>(method: 'POST' | 'PATCH' | 'DELETE', path: stri
   if (!response.ok) throw await toApiError(response);
   if (response.status === 204 || !schema) return null;
   return schema.parse(await response.json());
+}
+
+/** Fetches a binary endpoint (e.g. a forecast grid) as bytes; the browser undoes any gzip Content-Encoding. */
+export async function apiGetBinary(path: string): Promise<ArrayBuffer> {
+  const response = await fetch(`/api${path}`, { headers: { Accept: 'application/octet-stream' }, credentials: 'same-origin' });
+  if (!response.ok) throw await toApiError(response);
+  return response.arrayBuffer();
 }
 
 /** A multipart upload (e.g. a CSV in the field "file") with the anti-forgery header; the browser sets the multipart boundary. */

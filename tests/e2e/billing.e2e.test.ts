@@ -23,7 +23,7 @@ describe('billing in Chromium', () => {
   it('an owner subscribes through the local checkout page and the forecasts unlock', async () => {
     const page = await browser.context.newPage();
     await signInAs(page, product.baseUrl, 'owner@gullhaven.test', DEMO_PASSWORD);
-    await page.getByRole('link', { name: 'Billing' }).click();
+    await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Billing' }).click();
     await page.waitForURL(/\/o\/[0-9a-f-]+\/billing$/);
     billingPath = new URL(page.url()).pathname;
     await expect.poll(() => page.getByText('Forecasts', { exact: true }).isVisible()).toBe(true);
@@ -46,7 +46,7 @@ describe('billing in Chromium', () => {
     const page = await crewBrowser.context.newPage();
     await signInAs(page, product.baseUrl, 'crew@gullhaven.test', DEMO_PASSWORD);
     await expect.poll(() => page.getByRole('link', { name: 'Sites', exact: true }).isVisible()).toBe(true);
-    expect(await page.getByRole('link', { name: 'Billing' }).count()).toBe(0);
+    expect(await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Billing' }).count()).toBe(0);
     await page.goto(`${product.baseUrl}${billingPath}`);
     await expect.poll(() => page.getByText('Billing is for owners').isVisible()).toBe(true);
     expect(await page.getByRole('button', { name: /Subscribe/ }).count()).toBe(0);
