@@ -29,6 +29,14 @@ export async function ensureClientBuilt(projectRoot: string, log: (line: string)
   if (!clientNeedsBuild(projectRoot)) return false;
   log('Building the client (first start or sources changed)...');
   const { build } = await import('vite');
-  await build({ root: projectRoot, configFile: path.join(projectRoot, 'vite.config.ts'), logLevel: 'warn' });
+  // The served client is always a production build (React's development build is twice the size
+  // and renders twice), whatever NODE_ENV this process runs with.
+  const previous = process.env.NODE_ENV;
+  process.env.NODE_ENV = 'production';
+  try {
+    await build({ root: projectRoot, configFile: path.join(projectRoot, 'vite.config.ts'), logLevel: 'warn', mode: 'production' });
+  } finally {
+    process.env.NODE_ENV = previous;
+  }
   return true;
 }

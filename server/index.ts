@@ -180,6 +180,8 @@ async function main(): Promise<void> {
         forecastGate: requireActiveSubscription(db, { graceDays: config.BILLING_GRACE_DAYS }),
       },
       billing: services.billing.deps,
+      sampling: { forecastGate: requireActiveSubscription(db, { graceDays: config.BILLING_GRACE_DAYS }) },
+      lab: { forecastGate: requireActiveSubscription(db, { graceDays: config.BILLING_GRACE_DAYS }) },
       devMail: config.NODE_ENV === 'development' ? services.smtp : undefined,
       clientDir: serveClient ? clientDir(PROJECT_ROOT) : undefined,
     });

@@ -91,6 +91,31 @@ async function spareAlert(w: TeamWorld): Promise<string> {
 
 const tides = (w: TeamWorld) => `/orgs/${w.orgA}/sites/${w.siteA}/tides`;
 
+async function spareCalibration(w: TeamWorld, status: 'queued' | 'failed'): Promise<string> {
+  const db = w.database.db;
+  const { profileId } = await demoForecast(w);
+  const version = await db.selectFrom('organism_profile_versions').select('id').where('profile_id', '=', profileId).orderBy('version').executeTakeFirstOrThrow();
+  return (await db.insertInto('calibrations').values({ organisation_id: w.orgA, site_id: w.siteA, profile_version_id: version.id, status }).returning('id').executeTakeFirstOrThrow()).id;
+}
+const lab = (w: TeamWorld) => `/orgs/${w.orgA}/lab`;
+
+/** A profile of organisation A with one version (a fresh one per call). */
+async function spareProfile(w: TeamWorld): Promise<{ profileId: string; versionId: string }> {
+  const db = w.database.db;
+  const profile = await db.insertInto('organism_profiles').values({ organisation_id: w.orgA, name: `Spare profile ${siteCounter++}`, taxon: 'Skeletonema sp.' }).returning('id').executeTakeFirstOrThrow();
+  const version = await db
+    .insertInto('organism_profile_versions')
+    .values({ profile_id: profile.id, organisation_id: w.orgA, version: 1, params: JSON.stringify(organismParamsSchema.parse({ settlingVelocityMPerDay: 1, initialCellsPerL: 100, triggerCellsPerL: 1000 })) })
+    .returning('id')
+    .executeTakeFirstOrThrow();
+  return { profileId: profile.id, versionId: version.id };
+}
+async function spareSample(w: TeamWorld): Promise<string> {
+  return (await w.database.db.insertInto('planned_samples').values({ organisation_id: w.orgA, site_id: w.siteA, planned_at: new Date('2026-12-02T10:00:00Z'), method: 'bottle', depth_m: 5 }).returning('id').executeTakeFirstOrThrow()).id;
+}
+
+const PROFILE_PARAMS = { settlingVelocityMPerDay: 2, initialCellsPerL: 100, triggerCellsPerL: 1000 };
+
 const everyone = (status: number, anonymous = 401): Record<Subject, number> => ({ anonymous, ownerB: status, crewA: status, biologistA: status, managerA: status, ownerA: status });
 const members = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: status, biologistA: status, managerA: status, ownerA: status });
 const managers = (status: number): Record<Subject, number> => ({ anonymous: 401, ownerB: 404, crewA: 403, biologistA: 403, managerA: status, ownerA: status });
@@ -143,6 +168,18 @@ export const ROUTE_TABLE: RouteCase[] = [
     body: () => ({ name: `Profile ${siteCounter++}`, taxon: 'Skeletonema sp.', params: { settlingVelocityMPerDay: 1, initialCellsPerL: 100, triggerCellsPerL: 1000 } }),
     expect: scientists(201),
   },
+  { route: 'GET /orgs/:orgId/profiles/:profileId', path: async (w) => `/orgs/${w.orgA}/profiles/${(await spareProfile(w)).profileId}`, expect: members(200) },
+  { route: 'PATCH /orgs/:orgId/profiles/:profileId', path: async (w) => `/orgs/${w.orgA}/profiles/${(await spareProfile(w)).profileId}`, body: { params: PROFILE_PARAMS, note: 'faster' }, expect: scientists(200) },
+  { route: 'POST /orgs/:orgId/profiles/:profileId/versions', path: async (w) => `/orgs/${w.orgA}/profiles/${(await spareProfile(w)).profileId}/versions`, body: { params: PROFILE_PARAMS, note: 'what-if' }, expect: scientists(201) },
+  {
+    route: 'GET /orgs/:orgId/profiles/:profileId/versions/:versionId',
+    path: async (w) => {
+      const { profileId, versionId } = await spareProfile(w);
+      return `/orgs/${w.orgA}/profiles/${profileId}/versions/${versionId}`;
+    },
+    expect: members(200),
+  },
+  { route: 'POST /orgs/:orgId/profiles/:profileId/archive', path: async (w) => `/orgs/${w.orgA}/profiles/${(await spareProfile(w)).profileId}/archive`, expect: scientists(200) },
   { route: 'GET /orgs/:orgId/sites/:siteId/watch', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/watch`, expect: members(200) },
   { route: 'PUT /orgs/:orgId/sites/:siteId/watch', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/watch`, body: async (w: TeamWorld) => ({ profileIds: [(await demoForecast(w)).profileId] }), expect: managers(200) },
   { route: 'GET /orgs/:orgId/sites/:siteId/forecasts/latest', path: async (w) => `/orgs/${w.orgA}/sites/${w.siteA}/forecasts/latest?profileId=${(await demoForecast(w)).profileId}`, expect: members(200) },
@@ -160,6 +197,44 @@ export const ROUTE_TABLE: RouteCase[] = [
   // Public, by secret token: an unknown token is refused whoever asks.
   { route: 'GET /mail/unsubscribe/:token', path: () => '/mail/unsubscribe/not-a-real-token', expect: everyone(404, 404) },
 
+  // Sampling plan, overview and forecast settings.
+  { route: 'GET /orgs/:orgId/overview', path: (w) => `/orgs/${w.orgA}/overview`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/samples', path: (w) => `/orgs/${w.orgA}/samples`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/samples.ics', path: (w) => `/orgs/${w.orgA}/samples.ics`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/samples.csv', path: (w) => `/orgs/${w.orgA}/samples.csv`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/samples/:sampleId', path: async (w) => `/orgs/${w.orgA}/samples/${await spareSample(w)}`, expect: members(200) },
+  { route: 'POST /orgs/:orgId/sites/:siteId/samples', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/samples`, body: { plannedAt: '2026-12-02T10:00:00Z', method: 'bottle', depthM: 5 }, expect: managers(201) },
+  // No subscription in this world: past authorisation the answer is 402.
+  { route: 'POST /orgs/:orgId/sites/:siteId/samples/from-advice', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/samples/from-advice`, body: async (w: TeamWorld) => ({ forecastId: (await demoForecast(w)).forecastId }), expect: managers(402) },
+  { route: 'PATCH /orgs/:orgId/samples/:sampleId', path: async (w) => `/orgs/${w.orgA}/samples/${await spareSample(w)}`, body: { reason: 'moved to the afternoon' }, expect: managers(200) },
+  { route: 'DELETE /orgs/:orgId/samples/:sampleId', path: async (w) => `/orgs/${w.orgA}/samples/${await spareSample(w)}`, expect: managers(204) },
+  { route: 'POST /orgs/:orgId/samples/:sampleId/taken', path: async (w) => `/orgs/${w.orgA}/samples/${await spareSample(w)}/taken`, body: { notes: 'calm' }, expect: members(200) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/forecast-settings', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/forecast-settings`, expect: members(200) },
+  { route: 'PUT /orgs/:orgId/sites/:siteId/forecast-settings', path: (w) => `/orgs/${w.orgA}/sites/${w.siteA}/forecast-settings`, body: { forecastLocalTime: '05:00', forecastHorizonDays: 4, windowSettings: {} }, expect: managers(200) },
+
+  // Lab results, comparison with forecasts, calibration.
+  // JSON instead of multipart: past authorisation the answer is 400 "attach the CSV in the field file".
+  { route: 'POST /orgs/:orgId/lab/uploads/preview', path: (w) => `${lab(w)}/uploads/preview`, body: {}, expect: scientists(400) },
+  { route: 'POST /orgs/:orgId/lab/uploads', path: (w) => `${lab(w)}/uploads`, body: {}, expect: scientists(400) },
+  {
+    route: 'POST /orgs/:orgId/lab/results',
+    path: (w) => `${lab(w)}/results`,
+    body: (w: TeamWorld) => ({ siteId: w.siteA, sampleId: `AUTH-${siteCounter++}`, sampledAt: '2025-06-01T09:00:00+01:00', depthTopM: 5, method: 'bottle', taxon: 'Dinophysis acuta', cellsPerL: 120, detectionLimit: 40 }),
+    expect: scientists(201),
+  },
+  { route: 'GET /orgs/:orgId/lab/results', path: (w) => `${lab(w)}/results`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/lab/results/export.csv', path: (w) => `${lab(w)}/results/export.csv`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/lab/taxa', path: (w) => `${lab(w)}/taxa`, expect: members(200) },
+  { route: 'PUT /orgs/:orgId/lab/taxa', path: (w) => `${lab(w)}/taxa`, body: { mappings: [] }, expect: scientists(200) },
+  // Forecast output: without a subscription in this world, past authorisation the answer is 402.
+  { route: 'GET /orgs/:orgId/lab/comparison', path: async (w) => `${lab(w)}/comparison?profileId=${(await demoForecast(w)).profileId}`, expect: members(402) },
+  { route: 'POST /orgs/:orgId/lab/calibrations', path: (w) => `${lab(w)}/calibrations`, body: {}, expect: scientists(402) },
+  { route: 'GET /orgs/:orgId/lab/calibrations', path: (w) => `${lab(w)}/calibrations`, expect: members(200) },
+  { route: 'GET /orgs/:orgId/lab/calibrations/:calibrationId', path: async (w) => `${lab(w)}/calibrations/${await spareCalibration(w, 'queued')}`, expect: members(200) },
+  // A calibration still queued cannot be accepted: past authorisation the answer is 409.
+  { route: 'POST /orgs/:orgId/lab/calibrations/:calibrationId/accept', path: async (w) => `${lab(w)}/calibrations/${await spareCalibration(w, 'queued')}/accept`, expect: scientists(409) },
+  { route: 'POST /orgs/:orgId/lab/calibrations/:calibrationId/discard', path: async (w) => `${lab(w)}/calibrations/${await spareCalibration(w, 'failed')}/discard`, expect: scientists(200) },
+
   // Billing.
   { route: 'GET /orgs/:orgId/billing', path: (w) => `/orgs/${w.orgA}/billing`, expect: members(200) },
   // A plan that does not exist: the owner gets past authorisation to the check (400) and no payments call is made.
@@ -176,6 +251,7 @@ const CROSS_CASES: RouteCase[] = [
   { route: 'PATCH /orgs/:orgId/sites/:siteId', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}`, body: { gearBottomM: 9 }, expect: { ...managers(404), crewA: 403, biologistA: 403 } },
   { route: 'GET /orgs/:orgId/sites', path: (w) => `/orgs/${w.orgB}/sites`, expect: { anonymous: 401, ownerB: 200, crewA: 404, biologistA: 404, managerA: 404, ownerA: 404 } },
   { route: 'GET /orgs/:orgId/sites/:siteId/tides/sets', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}/tides/sets`, expect: members(404) },
+  { route: 'GET /orgs/:orgId/sites/:siteId/forecast-settings', path: (w) => `/orgs/${w.orgA}/sites/${w.siteB}/forecast-settings`, expect: members(404) },
   { route: 'GET /orgs/:orgId/forecasts/:forecastId', path: async (w) => `/orgs/${w.orgB}/forecasts/${(await demoForecast(w)).forecastId}`, expect: { anonymous: 401, ownerB: 404, crewA: 404, biologistA: 404, managerA: 404, ownerA: 404 } },
 ];
 

@@ -25,9 +25,9 @@ describe('migrations', () => {
     expect(applied.length).toBeGreaterThan(0);
     expect(applied.every((r) => r.status === 'Success')).toBe(true);
     expect(await tableNames(database.db)).toEqual([
-      'accounts', 'alerts', 'app_sessions', 'audit_events', 'billing_accounts', 'billing_events', 'constituent_sets', 'forecast_runs', 'forecasts',
-      'invitations', 'mail_log', 'mail_settings', 'memberships', 'organisations', 'organism_profile_versions', 'organism_profiles', 'schedule_slots',
-      'site_organisms', 'sites', 'tide_feed_refreshes', 'users',
+      'accounts', 'alerts', 'app_sessions', 'audit_events', 'billing_accounts', 'billing_events', 'calibrations', 'constituent_sets', 'forecast_runs', 'forecasts',
+      'invitations', 'lab_results', 'lab_uploads', 'mail_log', 'mail_settings', 'memberships', 'organisations', 'organism_profile_versions', 'organism_profiles',
+      'planned_samples', 'schedule_slots', 'site_organisms', 'sites', 'taxon_mappings', 'tide_feed_refreshes', 'users',
     ]);
   });
 

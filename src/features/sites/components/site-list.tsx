@@ -29,7 +29,10 @@ export function SiteList({ orgId, sites, canEdit }: { orgId: string; sites: Site
               <td className="px-3 py-2">{fmt(site.waterDepthM)} m</td>
               <td className="px-3 py-2">{fmt(site.gearTopM)}–{fmt(site.gearBottomM)} m</td>
               <td className="px-3 py-2">{site.timeZone}</td>
-              <td className="px-3 py-2">
+              <td className="space-x-3 px-3 py-2">
+                <Link className="text-tide-700 underline" to={`/o/${orgId}/sites/${site.id}/forecast`} aria-label={`Forecast at ${site.name}`}>
+                  Forecast
+                </Link>
                 <Link className="text-tide-700 underline" to={`/o/${orgId}/sites/${site.id}/tides`} aria-label={`Tides at ${site.name}`}>
                   Tides
                 </Link>
