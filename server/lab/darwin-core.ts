@@ -2,6 +2,7 @@
  * Lab results as Darwin Core occurrences (https://dwc.tdwg.org/terms/), one row per sample and taxon,
  * in RFC 4180 CSV (CRLF line ends; fields with a comma, quote or line break quoted, quotes doubled).
  */
+import { csvCell } from '../../shared/csv.ts';
 import type { ResultRow } from './lab.repository.ts';
 
 export const DARWIN_CORE_COLUMNS = [
@@ -26,11 +27,8 @@ export const DARWIN_CORE_COLUMNS = [
   'occurrenceRemarks',
 ] as const;
 
-/** One CSV field per RFC 4180. */
-export function csvField(value: string | number | null): string {
-  const text = value === null ? '' : String(value);
-  return /[",\r\n]/.test(text) ? `"${text.replace(/"/g, '""')}"` : text;
-}
+/** One CSV field per RFC 4180, with text that would run as a spreadsheet formula neutralised. */
+export const csvField = (value: string | number | null): string => csvCell(value);
 
 const PROTOCOL = {
   hose: (top: number, bottom: number) => `integrated hose (tube) sample ${top}-${bottom} m, cells counted by sedimentation microscopy`,

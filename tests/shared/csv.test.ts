@@ -12,8 +12,9 @@ describe('CSV cells', () => {
 
   it('neutralises text a spreadsheet would run as a formula (OWASP CSV injection guidance)', () => {
     expect(csvCell('=HYPERLINK("http://x")')).toBe(`"'=HYPERLINK(""http://x"")"`);
-    expect(csvCell('+1')).toBe("'+1");
+    expect(csvCell('+A1+B1')).toBe("'+A1+B1");
     expect(csvCell('@SUM(A1)')).toBe("'@SUM(A1)");
     expect(csvCell(-3)).toBe('-3');
+    expect(csvCell('-5.731')).toBe('-5.731');
   });
 });
