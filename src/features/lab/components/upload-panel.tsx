@@ -4,7 +4,7 @@ import { Button } from '../../../components/ui/button.tsx';
 import { TextField } from '../../../components/ui/field.tsx';
 import { usePreviewUpload } from '../api/preview-upload.ts';
 import { useUploadResults } from '../api/upload-results.ts';
-import { UploadProblems } from './upload-problems.tsx';
+import { UploadProblems } from '../../../components/ui/upload-problems.tsx';
 
 const REQUIRED: LabField[] = ['sampleId', 'site', 'sampledAt', 'method', 'taxon', 'cellsPerL', 'detectionLimit'];
 

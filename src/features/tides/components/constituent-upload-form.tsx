@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/ui/button.tsx';
 import { SelectField, TextField } from '../../../components/ui/field.tsx';
 import { useUploadConstituentTable } from '../api/upload-constituent-table.ts';
-import { UploadProblems } from './upload-problems.tsx';
+import { UploadProblems } from '../../../components/ui/upload-problems.tsx';
 
 /** Upload a constituent table (CSV: name, amplitude, phase_deg; for currents also minor, inclination_deg). */
 export function ConstituentUploadForm({ orgId, siteId }: { orgId: string; siteId: string }) {

@@ -6,7 +6,7 @@ import { useAnalyseRecord } from '../api/analyse-record.ts';
 import { useSaveRecordSet } from '../api/save-record-set.ts';
 import { num, siteTime } from './format.ts';
 import { LineChart } from './line-chart.tsx';
-import { UploadProblems } from './upload-problems.tsx';
+import { UploadProblems } from '../../../components/ui/upload-problems.tsx';
 
 function xTicksOf(times: string[], timeZone: string) {
   const count = 6;
