@@ -11,6 +11,7 @@ import { sendDueDigests } from '../mail/digest.ts';
 import type { Mailer } from '../mail/mailer.ts';
 import type { TideFeedClient } from '../tides/tide-feed.client.ts';
 import { prepareSiteRuns, type PrepareDeps } from './prepare-runs.ts';
+import { pruneForecasts } from './retention.ts';
 import { startQueue } from './queue.ts';
 import { schedulerTick } from './scheduler.ts';
 import { siteTideSource } from './site-tide-source.ts';
@@ -65,6 +66,10 @@ export async function startForecastServices(deps: {
         const queued = await schedulerTick({ db, boss }, now).catch((error: unknown) => (logger.error({ err: error }, 'scheduler tick failed'), 0));
         if (queued) logger.info({ queued }, 'scheduled site forecasts queued');
         await sendDueDigests({ db, mailer: deps.mailer, appBaseUrl: config.APP_BASE_URL }, now).catch((error: unknown) => logger.error({ err: error }, 'digest mail failed'));
+        if (new Date(now).getUTCMinutes() === 17) {
+          const pruned = await pruneForecasts(db, now).catch((error: unknown) => (logger.error({ err: error }, 'forecast retention failed'), 0));
+          if (pruned) logger.info({ pruned }, 'old forecasts deleted');
+        }
       },
       { name: 'planktide-scheduler', noOverlap: true },
     );
