@@ -5,20 +5,20 @@
  */
 import autocannon from 'autocannon';
 
-const [url, cookie, connections = '50', seconds = '15'] = process.argv.slice(2);
+const [url, cookie, connections = '50', seconds = '15', extraHeaders = '{}'] = process.argv.slice(2);
 if (!url || !cookie) {
-  console.error('usage: load-client URL COOKIE [CONNECTIONS] [SECONDS]');
+  console.error('usage: load-client URL COOKIE [CONNECTIONS] [SECONDS] [HEADERS-JSON]');
   process.exit(2);
 }
 const times: number[] = [];
 const result = await new Promise<autocannon.Result>((resolve, reject) => {
-  const instance = autocannon({ url, connections: Number(connections), duration: Number(seconds), headers: { cookie, accept: 'application/json' } }, (error, done) =>
+  const instance = autocannon({ url, connections: Number(connections), duration: Number(seconds), headers: { cookie, accept: 'application/json', ...(JSON.parse(extraHeaders) as Record<string, string>) } }, (error, done) =>
     error ? reject(error) : resolve(done),
   );
   instance.on('response', (_client, _status, _bytes, responseTime) => times.push(responseTime));
 });
 times.sort((a, b) => a - b);
-const pct = (p: number) => times[Math.min(times.length - 1, Math.floor((p / 100) * times.length))] ?? Number.NaN;
+const pct = (p: number) => Math.round(times[Math.min(times.length - 1, Math.floor((p / 100) * times.length))] ?? Number.NaN);
 console.log(
   JSON.stringify({
     url,
@@ -27,6 +27,7 @@ console.log(
     requests: result.requests.total,
     rps: result.requests.average,
     non2xx: result.non2xx,
+    statuses: Object.fromEntries(Object.entries(result.statusCodeStats ?? {}).map(([code, stat]) => [code, stat.count])),
     errors: result.errors,
     timeouts: result.timeouts,
     p50: pct(50),

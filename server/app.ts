@@ -10,6 +10,7 @@ import { loadCurrentUser, oidcRelyingParty, type OidcSettings } from './auth/oid
 import { keepSessionCookieWhenUnreadable, refuseWhenSessionsUnreadable, trackSessionReads } from './auth/session-store.ts';
 import type { Db } from './db/connect.ts';
 import { errorMiddleware, notFound } from './http/error-middleware.ts';
+import { dropOrgReadsOnWrite } from './http/org-read-cache.ts';
 import { healthRoutes } from './http/health.routes.ts';
 import { invitationAcceptRoutes, organisationInvitationRoutes } from './invitations/invitations.routes.ts';
 import { logRequest, type Logger } from './logger.ts';
@@ -107,6 +108,7 @@ export function createApp(deps: AppDeps): Express {
   api.use(loadCurrentUser(deps.db));
   api.use(csrfGuard(new URL(deps.appBaseUrl).origin));
   api.use(accountRoutes(deps.db));
+  api.use('/orgs/:orgId', dropOrgReadsOnWrite);
   api.use(mailSettingsRoutes(deps.db));
   api.use('/invitations', invitationAcceptRoutes(deps.db));
   api.use('/orgs/:orgId', organisationRoutes(deps.db));

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import type { Role } from '../../shared/schemas/common.schema.ts';
 import type { Db } from '../db/connect.ts';
+import { membershipCache } from './access-cache.ts';
 import { AppError } from '../http/app-error.ts';
 import '../http/request-context.ts';
 
@@ -23,14 +24,13 @@ export function requireMember(db: Db, roles: readonly Role[]): RequestHandler {
     if (!req.user) return next(new AppError('unauthenticated', 'Sign in to use this. Your session may have ended.'));
     const orgId = req.params.orgId;
     if (typeof orgId !== 'string' || !UUID.test(orgId)) return next(new AppError('not_found', 'No such organisation.'));
-    const membership = await db
-      .selectFrom('memberships')
-      .select(['organisation_id', 'role'])
-      .where('organisation_id', '=', orgId)
-      .where('user_id', '=', req.user.id)
-      .executeTakeFirst();
+    const userId = req.user.id;
+    const membership = await membershipCache.get(membershipCache.key(orgId, userId), async () => {
+      const row = await db.selectFrom('memberships').select(['organisation_id', 'role']).where('organisation_id', '=', orgId).where('user_id', '=', userId).executeTakeFirst();
+      return row && { organisationId: row.organisation_id, role: row.role };
+    });
     if (!membership) return next(new AppError('not_found', 'No such organisation.'));
-    req.membership = { organisationId: membership.organisation_id, role: membership.role };
+    req.membership = { ...membership };
     if (!roles.includes(membership.role)) {
       return next(new AppError('forbidden', `Your role (${membership.role}) may not do this; it needs ${roles.join(' or ')}.`));
     }

@@ -1,6 +1,7 @@
 import type { RequestHandler } from 'express';
 import { auth } from 'express-openid-connect';
 import type { Db } from '../db/connect.ts';
+import { userCache } from './access-cache.ts';
 import '../http/request-context.ts';
 import { PostgresSessionStore } from './session-store.ts';
 import { findUserByIdentity, upsertUserFromIdentity, type IdentityClaims } from './users.repository.ts';
@@ -68,7 +69,8 @@ export function loadCurrentUser(db: Db): RequestHandler {
     const claims = req.oidc.idTokenClaims as Record<string, unknown> | undefined;
     if (!claims) return next();
     const identity = identityFrom(claims);
-    req.user = (await findUserByIdentity(db, identity.issuer, identity.subject)) ?? (await upsertUserFromIdentity(db, identity));
+    const found = await userCache.get(userCache.key(identity.issuer, identity.subject), () => findUserByIdentity(db, identity.issuer, identity.subject));
+    req.user = found ?? (await upsertUserFromIdentity(db, identity));
     next();
   };
 }

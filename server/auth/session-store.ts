@@ -1,7 +1,9 @@
 import { AsyncLocalStorage } from 'node:async_hooks';
 import type { RequestHandler } from 'express';
+import { LRUCache } from 'lru-cache';
 import type { Db } from '../db/connect.ts';
 import { AppError } from '../http/app-error.ts';
+import { ACCESS_CACHE_MS } from './access-cache.ts';
 
 /**
  * The sign-in library treats a session it cannot read as no session; this context lets a request
@@ -47,18 +49,26 @@ const TOUCH_INTERVAL_MS = 5 * 60_000;
 export class PostgresSessionStore {
   /** sid → when it was last written and what its data was, to skip writes that only move the expiry. */
   private readonly written = new Map<string, { at: number; data: string }>();
+  /** Sessions read or written in the last moment (see ACCESS_CACHE_MS), as JSON with their expiry. */
+  private readonly recent = new LRUCache<string, { json: string; expireMs: number }>({ max: 10_000, ttl: ACCESS_CACHE_MS });
 
   constructor(private readonly db: Db) {}
 
   get(sid: string, callback: Callback<StoredSession | null>): void {
+    const recent = this.recent.get(sid);
+    // A fresh copy each time: the sign-in library changes the session object it is given.
+    if (recent && recent.expireMs > Date.now()) return callback(null, JSON.parse(recent.json) as StoredSession);
     this.db
       .selectFrom('app_sessions')
-      .select('sess')
+      .select(['sess', 'expire'])
       .where('sid', '=', sid)
       .where('expire', '>', new Date())
       .executeTakeFirst()
       .then(
-        (row) => callback(null, (row?.sess as StoredSession | undefined) ?? null),
+        (row) => {
+          if (row) this.recent.set(sid, { json: JSON.stringify(row.sess), expireMs: row.expire.getTime() });
+          callback(null, (row?.sess as StoredSession | undefined) ?? null);
+        },
         (error: unknown) => {
           const context = sessionReads.getStore();
           if (context) context.failed = true;
@@ -72,6 +82,8 @@ export class PostgresSessionStore {
     const expire = new Date(expSeconds * 1000);
     // Every request refreshes a rolling session; when only its expiry moved, write it back now and then.
     const data = JSON.stringify(session.data ?? null);
+    // Keeps the entry's first time to live: under steady traffic it still goes back to the database.
+    this.recent.set(sid, { json: JSON.stringify(session), expireMs: expire.getTime() }, { noUpdateTTL: true });
     const last = this.written.get(sid);
     if (last && last.data === data && Date.now() - last.at < TOUCH_INTERVAL_MS) return callback(null);
     if (this.written.size > 50_000) this.written.clear();
@@ -85,6 +97,7 @@ export class PostgresSessionStore {
         () => callback(null),
         (error: unknown) => {
           this.written.delete(sid);
+          this.recent.delete(sid);
           callback(error);
         },
       );
@@ -94,6 +107,7 @@ export class PostgresSessionStore {
     // A session that could not be read (database down) was not ended: keep it.
     if (sessionReads.getStore()?.failed) return callback(null);
     this.written.delete(sid);
+    this.recent.delete(sid);
     this.db
       .deleteFrom('app_sessions')
       .where('sid', '=', sid)

@@ -1,4 +1,5 @@
 import type { Transaction } from 'kysely';
+import { accountChanged } from '../auth/access-cache.ts';
 import type { Db } from '../db/connect.ts';
 import type { Database } from '../db/schema.ts';
 import type { BillingAccount, BillingAccountUpdate } from '../db/tables/billing.ts';
@@ -24,6 +25,7 @@ export async function organisationExists(db: Executor, organisationId: string): 
 }
 
 export async function saveCustomer(db: Executor, organisationId: string, customerId: string): Promise<void> {
+  accountChanged(organisationId);
   await db
     .insertInto('billing_accounts')
     .values({ organisation_id: organisationId, customer_id: customerId })
@@ -32,6 +34,7 @@ export async function saveCustomer(db: Executor, organisationId: string, custome
 }
 
 export async function updateAccount(trx: Executor, organisationId: string, changes: BillingAccountUpdate): Promise<void> {
+  accountChanged(organisationId);
   await trx.updateTable('billing_accounts').set({ ...changes, updated_at: new Date() }).where('organisation_id', '=', organisationId).execute();
 }
 

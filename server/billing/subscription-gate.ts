@@ -4,6 +4,7 @@ import type { Db } from '../db/connect.ts';
 import type { BillingAccount } from '../db/tables/billing.ts';
 import { AppError } from '../http/app-error.ts';
 import '../http/request-context.ts';
+import { accountCache } from '../auth/access-cache.ts';
 import { findAccount } from './billing.repository.ts';
 import { findPlan } from './plans.ts';
 
@@ -40,7 +41,7 @@ export function accessFromAccount(account: BillingAccount | undefined, options: 
 }
 
 export async function forecastAccess(db: Db, organisationId: string, options: GateOptions = {}): Promise<ForecastAccess> {
-  return accessFromAccount(await findAccount(db, organisationId), options);
+  return accessFromAccount(await accountCache.get(organisationId, () => findAccount(db, organisationId)), options);
 }
 
 /**

@@ -1,22 +1,25 @@
 import type { Forecast, ForecastRun } from '../../shared/schemas/forecast.schema.ts';
 import type { Db } from '../db/connect.ts';
 
+const FORECAST_COLUMNS = ['f.id', 'f.site_id', 'f.profile_version_id', 'f.forecast_start', 'f.horizon_days', 'f.created_at', 'f.inputs', 'f.windows', 'f.advice', 'r.tide_note'] as const;
+
 export async function findForecast(db: Db, organisationId: string, forecastId: string) {
   return db
     .selectFrom('forecasts as f')
     .innerJoin('forecast_runs as r', 'r.id', 'f.run_id')
-    .select(['f.id', 'f.site_id', 'f.profile_version_id', 'f.forecast_start', 'f.horizon_days', 'f.created_at', 'f.inputs', 'f.windows', 'f.advice', 'r.tide_note'])
+    .select(FORECAST_COLUMNS)
     .where('f.organisation_id', '=', organisationId)
     .where('f.id', '=', forecastId)
     .executeTakeFirst();
 }
 
 /** The newest forecast of the site for any version of the profile. */
-export async function latestForecastId(db: Db, organisationId: string, siteId: string, profileId: string): Promise<string | undefined> {
-  const row = await db
+export async function latestForecast(db: Db, organisationId: string, siteId: string, profileId: string) {
+  return db
     .selectFrom('forecasts as f')
+    .innerJoin('forecast_runs as r', 'r.id', 'f.run_id')
     .innerJoin('organism_profile_versions as v', 'v.id', 'f.profile_version_id')
-    .select('f.id')
+    .select(FORECAST_COLUMNS)
     .where('f.organisation_id', '=', organisationId)
     .where('f.site_id', '=', siteId)
     .where('v.profile_id', '=', profileId)
@@ -24,7 +27,11 @@ export async function latestForecastId(db: Db, organisationId: string, siteId: s
     .orderBy('f.created_at', 'desc')
     .limit(1)
     .executeTakeFirst();
-  return row?.id;
+}
+
+export async function forecastExists(db: Db, organisationId: string, forecastId: string): Promise<boolean> {
+  const row = await db.selectFrom('forecasts').select('id').where('organisation_id', '=', organisationId).where('id', '=', forecastId).executeTakeFirst();
+  return row !== undefined;
 }
 
 export async function forecastGrid(db: Db, organisationId: string, forecastId: string): Promise<Buffer | undefined> {

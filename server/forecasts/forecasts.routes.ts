@@ -3,15 +3,17 @@ import { Router, type RequestHandler } from 'express';
 import type PgBoss from 'pg-boss';
 import { z } from 'zod';
 import { decodeGrid } from '../../shared/forecast/grid-codec.ts';
-import { runNowSchema, watchSchema } from '../../shared/schemas/forecast.schema.ts';
+import { runNowSchema, watchSchema, type Forecast } from '../../shared/schemas/forecast.schema.ts';
 import { ALL_ROLES, requireMember } from '../auth/authorize.ts';
 import { recordAudit } from '../audit/audit.repository.ts';
 import type { Db } from '../db/connect.ts';
 import { AppError } from '../http/app-error.ts';
+import { orgReadCache } from '../http/org-read-cache.ts';
 import { validate } from '../http/validate.ts';
 import { findSite } from '../sites/sites.repository.ts';
 import { forecastCsvLines } from './forecast-csv.ts';
 import * as repo from './forecasts.repository.ts';
+import { createGridCache } from './grid-cache.ts';
 import { prepareSiteRuns } from './prepare-runs.ts';
 import type { TideSource } from './tide-source.ts';
 
@@ -36,6 +38,8 @@ export function forecastRoutes(deps: ForecastsDeps): Router {
   const readers = requireMember(db, ALL_ROLES);
   const managers = requireMember(db, ['owner', 'manager']);
   const gate: RequestHandler = deps.forecastGate ?? ((_req, _res, next) => next());
+  const grids = createGridCache();
+  const latestReads = orgReadCache<Forecast>();
 
   const siteOr404 = async (orgId: string, siteId: string) => {
     const site = await findSite(db, orgId, siteId);
@@ -66,10 +70,13 @@ export function forecastRoutes(deps: ForecastsDeps): Router {
   router.get('/sites/:siteId/forecasts/latest', readers, gate, validate({ params: siteParams, query: latestQuery }), async (req, res) => {
     const orgId = req.membership!.organisationId;
     const { profileId } = req.query as z.infer<typeof latestQuery>;
-    const id = await repo.latestForecastId(db, orgId, String(req.params.siteId), profileId);
-    const row = id ? await repo.findForecast(db, orgId, id) : undefined;
-    if (!row) throw new AppError('not_found', 'No forecast yet for this site and organism. Managers can start one with "Run now".');
-    res.json(repo.toForecastDto(row, orgId));
+    const siteId = String(req.params.siteId);
+    const latest = await latestReads(orgId, `latest/${siteId}/${profileId}`, async () => {
+      const row = await repo.latestForecast(db, orgId, siteId, profileId);
+      if (!row) throw new AppError('not_found', 'No forecast yet for this site and organism. Managers can start one with "Run now".');
+      return repo.toForecastDto(row, orgId);
+    });
+    res.json(latest);
   });
   router.get('/forecasts/:forecastId', readers, gate, validate({ params: forecastParams }), async (req, res) => {
     const orgId = req.membership!.organisationId;
@@ -78,10 +85,18 @@ export function forecastRoutes(deps: ForecastsDeps): Router {
     res.json(repo.toForecastDto(row, orgId));
   });
   router.get('/forecasts/:forecastId/grid', readers, gate, validate({ params: forecastParams }), async (req, res) => {
-    const grid = await repo.forecastGrid(db, req.membership!.organisationId, String(req.params.forecastId));
+    const orgId = req.membership!.organisationId;
+    const forecastId = String(req.params.forecastId);
+    // A forecast's grid never changes: its id is its validator, and a browser that has it gets 304.
+    res.set({ ETag: `"grid-${forecastId}"`, 'Cache-Control': 'private, max-age=86400, immutable' });
+    if (req.fresh && (grids.has(orgId, forecastId) || (await repo.forecastExists(db, orgId, forecastId)))) {
+      res.status(304).end();
+      return;
+    }
+    const grid = await grids.get(orgId, forecastId, () => repo.forecastGrid(db, orgId, forecastId));
     if (!grid) throw new AppError('not_found', 'No such forecast in this organisation.');
     // Stored gzip-compressed: sent as is, and the browser unpacks it.
-    res.set({ 'Content-Type': 'application/octet-stream', 'Content-Encoding': 'gzip', 'Cache-Control': 'private, max-age=86400, immutable' });
+    res.set({ 'Content-Type': 'application/octet-stream', 'Content-Encoding': 'gzip' });
     res.send(grid);
   });
   router.get('/forecasts/:forecastId/download.csv', readers, gate, validate({ params: forecastParams }), async (req, res) => {

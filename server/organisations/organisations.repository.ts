@@ -1,6 +1,7 @@
 import type { Transaction } from 'kysely';
 import type { Db } from '../db/connect.ts';
 import type { Database, Role } from '../db/schema.ts';
+import { accountChanged, membershipChanged } from '../auth/access-cache.ts';
 
 type Executor = Db | Transaction<Database>;
 
@@ -55,13 +56,17 @@ export async function countOwners(db: Executor, organisationId: string): Promise
 }
 
 export async function updateRole(db: Executor, organisationId: string, userId: string, role: Role) {
+  membershipChanged(organisationId, userId);
   await db.updateTable('memberships').set({ role }).where('organisation_id', '=', organisationId).where('user_id', '=', userId).execute();
 }
 
 export async function deleteMembership(db: Executor, organisationId: string, userId: string) {
+  membershipChanged(organisationId, userId);
   await db.deleteFrom('memberships').where('organisation_id', '=', organisationId).where('user_id', '=', userId).execute();
 }
 
 export async function deleteOrganisation(db: Executor, organisationId: string) {
+  membershipChanged(organisationId);
+  accountChanged(organisationId);
   await db.deleteFrom('organisations').where('id', '=', organisationId).execute();
 }

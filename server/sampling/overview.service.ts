@@ -20,44 +20,52 @@ const nextOf = (windows: ForecastWindowDto[], kind: ForecastWindowDto['kind'], n
  */
 export async function overview(db: Db, organisationId: string, nowMs = Date.now()): Promise<Overview> {
   const unlocked = (await forecastAccess(db, organisationId)).unlocked;
-  const sites = await db
-    .selectFrom('sites')
-    .select(['id', 'name', 'time_zone'])
-    .where('organisation_id', '=', organisationId)
-    .where('archived_at', 'is', null)
-    .orderBy('name')
-    .execute();
-  const forecasts = unlocked
-    ? await db
-        .selectFrom('forecasts as f')
-        .innerJoin('organism_profile_versions as v', 'v.id', 'f.profile_version_id')
-        .innerJoin('organism_profiles as p', 'p.id', 'v.profile_id')
-        .innerJoin('site_organisms as so', (join) => join.onRef('so.site_id', '=', 'f.site_id').onRef('so.profile_id', '=', 'p.id'))
-        .distinctOn(['f.site_id', 'p.id'])
-        .select(['f.id', 'f.site_id', 'p.id as profile_id', 'p.name as profile_name', 'f.forecast_start', 'f.created_at', 'f.horizon_days', 'f.windows'])
-        .where('f.organisation_id', '=', organisationId)
-        .orderBy('f.site_id')
-        .orderBy('p.id')
-        .orderBy('f.forecast_start', 'desc')
-        .orderBy('f.created_at', 'desc')
-        .execute()
-    : [];
-  const alerts = await db
-    .selectFrom('alerts')
-    .select(['id', 'site_id', 'kind', 'message', 'created_at'])
-    .where('organisation_id', '=', organisationId)
-    .where('acknowledged_at', 'is', null)
-    .orderBy('created_at', 'desc')
-    .limit(200)
-    .execute();
-  const planned = await db
-    .selectFrom('planned_samples')
-    .select(['site_id', 'planned_at'])
-    .where('organisation_id', '=', organisationId)
-    .where('taken_at', 'is', null)
-    .where('planned_at', '>=', new Date(nowMs - 2 * 86_400_000))
-    .where('planned_at', '<', new Date(nowMs + 2 * 86_400_000))
-    .execute();
+  // The newest forecast of each watched organism at each site, found on the small columns first.
+  const newest = db
+    .selectFrom('forecasts as f')
+    .innerJoin('organism_profile_versions as v', 'v.id', 'f.profile_version_id')
+    .innerJoin('site_organisms as so', (join) => join.onRef('so.site_id', '=', 'f.site_id').onRef('so.profile_id', '=', 'v.profile_id'))
+    .distinctOn(['f.site_id', 'v.profile_id'])
+    .select('f.id')
+    .where('f.organisation_id', '=', organisationId)
+    .orderBy('f.site_id')
+    .orderBy('v.profile_id')
+    .orderBy('f.forecast_start', 'desc')
+    .orderBy('f.created_at', 'desc');
+  const [sites, forecasts, alerts, planned] = await Promise.all([
+    db
+      .selectFrom('sites')
+      .select(['id', 'name', 'time_zone'])
+      .where('organisation_id', '=', organisationId)
+      .where('archived_at', 'is', null)
+      .orderBy('name')
+      .execute(),
+    unlocked
+      ? db
+          .selectFrom('forecasts as f')
+          .innerJoin('organism_profile_versions as v', 'v.id', 'f.profile_version_id')
+          .innerJoin('organism_profiles as p', 'p.id', 'v.profile_id')
+          .select(['f.id', 'f.site_id', 'p.id as profile_id', 'p.name as profile_name', 'f.forecast_start', 'f.created_at', 'f.horizon_days', 'f.windows'])
+          .where('f.id', 'in', newest)
+          .execute()
+      : Promise.resolve([]),
+    db
+      .selectFrom('alerts')
+      .select(['id', 'site_id', 'kind', 'message', 'created_at'])
+      .where('organisation_id', '=', organisationId)
+      .where('acknowledged_at', 'is', null)
+      .orderBy('created_at', 'desc')
+      .limit(200)
+      .execute(),
+    db
+      .selectFrom('planned_samples')
+      .select(['site_id', 'planned_at'])
+      .where('organisation_id', '=', organisationId)
+      .where('taken_at', 'is', null)
+      .where('planned_at', '>=', new Date(nowMs - 2 * 86_400_000))
+      .where('planned_at', '<', new Date(nowMs + 2 * 86_400_000))
+      .execute(),
+  ]);
 
   const out: OverviewSite[] = sites.map((site) => {
     const span = twoDays(nowMs, site.time_zone);

@@ -7,12 +7,14 @@ import {
   sampleListQuerySchema,
   sampleUpdateSchema,
   takenInputSchema,
+  type Overview,
   type SampleListQuery,
 } from '../../shared/schemas/sampling.schema.ts';
 import { ALL_ROLES, requireMember } from '../auth/authorize.ts';
 import { requireActiveSubscription } from '../billing/subscription-gate.ts';
 import type { Db } from '../db/connect.ts';
 import { AppError } from '../http/app-error.ts';
+import { orgReadCache } from '../http/org-read-cache.ts';
 import { validate } from '../http/validate.ts';
 import { overview } from './overview.service.ts';
 import { samplesCalendar, samplesCsv } from './sample-exports.ts';
@@ -42,8 +44,10 @@ export function samplingRoutes(deps: SamplingDeps): Router {
   const gate = deps.forecastGate ?? requireActiveSubscription(db);
   const orgOf = (req: { membership?: { organisationId: string } }) => req.membership!.organisationId;
 
+  const overviews = orgReadCache<Overview>();
   router.get('/overview', readers, async (req, res) => {
-    res.json(await overview(db, orgOf(req)));
+    const organisationId = orgOf(req);
+    res.json(await overviews(organisationId, 'overview', () => overview(db, organisationId)));
   });
 
   router.get('/samples', readers, validate({ query: sampleListQuerySchema }), async (req, res) => {

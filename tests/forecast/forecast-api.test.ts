@@ -104,6 +104,38 @@ describe('forecast API', () => {
     expect(Math.min(...grid.concentration)).toBeGreaterThanOrEqual(0);
   });
 
+  it('lets a browser revalidate the grid (ETag, 304 without a body), and never for another organisation', async () => {
+    const url = `${world.baseUrl}/api/orgs/${world.orgA}/forecasts/${forecastId}/grid`;
+    const first = await manager.request(url);
+    const etag = first.headers.get('etag');
+    expect(etag).toBeTruthy();
+    expect(first.headers.get('cache-control')).toContain('private');
+    // RFC 9110 §13.1.2: a matching If-None-Match answers 304 Not Modified. (As a browser revalidating its
+    // copy sends it; fetch() would otherwise add "Cache-Control: no-cache", which asks for the full answer.)
+    const revalidate = (tag: string) => ({ headers: { 'if-none-match': tag, 'cache-control': 'max-age=0' } });
+    const again = await manager.request(url, revalidate(etag!));
+    expect(again.status).toBe(304);
+    expect((await again.arrayBuffer()).byteLength).toBe(0);
+    expect((await manager.request(url, revalidate('"something-else"'))).status).toBe(200);
+    // Organisation B's owner, naming A's forecast under B with A's validator, learns nothing.
+    const ownerB = await world.as('ownerB');
+    const foreign = await ownerB.request(`${world.baseUrl}/api/orgs/${world.orgB}/forecasts/${forecastId}/grid`, revalidate(etag!));
+    expect([402, 404]).toContain(foreign.status);
+  });
+
+  it('shows a newer forecast and a changed subscription at once when they change through the app', async () => {
+    const crew = await world.as('crewA');
+    const latest = `/orgs/${world.orgA}/sites/${world.siteA}/forecasts/latest?profileId=${profileId}`;
+    expect(forecastSchema.parse((await crew.api(world.baseUrl, 'GET', latest)).json).id).toBe(forecastId);
+    // A manager's request that changes the organisation drops its kept reads: the next read is current.
+    const watch = await manager.api(world.baseUrl, 'PUT', `/orgs/${world.orgA}/sites/${world.siteA}/watch`, { profileIds: [] });
+    expect(watch.status).toBe(200);
+    await world.database.db.updateTable('forecasts').set({ created_at: new Date('2020-01-01T00:00:00Z') }).where('id', '=', forecastId).execute();
+    const read = forecastSchema.parse((await crew.api(world.baseUrl, 'GET', latest)).json);
+    expect(read.createdAt).toBe('2020-01-01T00:00:00.000Z');
+    expect((await manager.api(world.baseUrl, 'PUT', `/orgs/${world.orgA}/sites/${world.siteA}/watch`, { profileIds: [profileId] })).status).toBe(200);
+  });
+
   it('downloads a long-format CSV (RFC 4180) with UTC and site-local times, parsed by papaparse', async () => {
     const response = await manager.request(`${world.baseUrl}/api/orgs/${world.orgA}/forecasts/${forecastId}/download.csv`);
     const parsed = Papa.parse<Record<string, string>>(await response.text(), { header: true, skipEmptyLines: true });
