@@ -32,7 +32,11 @@ const configSchema = z.object({
   FORECAST_LAYERS: z.coerce.number().int().min(10).max(400).default(50),
   FORECAST_TIME_STEP_S: z.coerce.number().min(1).max(120).default(30),
   PLANKTIDE_WORKERS: z.coerce.number().int().min(0, 'must be 0 or more').max(16).default(1),
+  /** CPU priority (nice value) of the worker processes: model runs yield to the web server's answers. */
+  PLANKTIDE_WORKER_NICE: z.coerce.number().int().min(0, 'must be 0 (same priority as the web server) or more').max(19, 'must be 19 or less').default(10),
   PLANKTIDE_SCHEDULER: z.enum(['on', 'off']).default('on'),
+  /** How long a mail send may wait for the mail service (connect, greeting; twice that for a silent socket). */
+  SMTP_TIMEOUT_MS: z.coerce.number().int().min(100).max(120_000).default(10_000),
   QUEUE_JOB_TIMEOUT_S: z.coerce.number().int().min(5).max(86400).default(900),
   QUEUE_RETRY_DELAY_S: z.coerce.number().int().min(1).max(3600).default(30),
   QUEUE_MAINTENANCE_S: z.coerce.number().int().min(1).max(3600).default(60),

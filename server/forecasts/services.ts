@@ -1,4 +1,5 @@
 import { spawn, type ChildProcess } from 'node:child_process';
+import os from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import cron from 'node-cron';
@@ -13,6 +14,7 @@ import type { TideFeedClient } from '../tides/tide-feed.client.ts';
 import { prepareSiteRuns, type PrepareDeps } from './prepare-runs.ts';
 import { pruneForecasts } from './retention.ts';
 import { startQueue } from './queue.ts';
+import { retryAlertMails } from './notify.ts';
 import { schedulerTick } from './scheduler.ts';
 import { siteTideSource } from './site-tide-source.ts';
 import type { TideSource } from './tide-source.ts';
@@ -20,8 +22,16 @@ import type { TideSource } from './tide-source.ts';
 const PROJECT_ROOT = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../..');
 
 /** A forecast worker process (`npm run worker`): model runs never block this process's HTTP answers. */
-function spawnWorker(env: Record<string, string>, logger: Logger): ChildProcess {
+function spawnWorker(env: Record<string, string>, nice: number, logger: Logger): ChildProcess {
   const child = spawn(process.execPath, ['--import', 'tsx', 'jobs/worker.ts'], { cwd: PROJECT_ROOT, env: { ...process.env, ...env }, stdio: ['ignore', 'inherit', 'inherit'] });
+  // Batch work at a lower CPU priority, so that a busy worker does not slow people's requests.
+  if (child.pid !== undefined && nice > 0) {
+    try {
+      os.setPriority(child.pid, nice);
+    } catch (error) {
+      logger.warn({ err: error }, 'could not lower the forecast worker priority');
+    }
+  }
   child.once('exit', (code, signal) => {
     if (code !== 0 && signal !== 'SIGTERM') logger.error({ code, signal }, 'forecast worker process exited');
   });
@@ -55,8 +65,9 @@ export async function startForecastServices(deps: {
   const tides = siteTideSource({ db, feed: deps.feed });
   const workers: ChildProcess[] = [];
   for (let i = 0; i < config.PLANKTIDE_WORKERS; i++) {
-    workers.push(spawnWorker({ DATABASE_URL: deps.databaseUrl, TIDE_FEED_URL: deps.feedUrl, SMTP_URL: deps.smtpUrl, APP_BASE_URL: config.APP_BASE_URL }, logger));
+    workers.push(spawnWorker({ DATABASE_URL: deps.databaseUrl, TIDE_FEED_URL: deps.feedUrl, SMTP_URL: deps.smtpUrl, APP_BASE_URL: config.APP_BASE_URL }, config.PLANKTIDE_WORKER_NICE, logger));
   }
+  const onMailFailed = (to: string, error: unknown) => logger.warn({ err: error, to }, 'mail could not be sent now; it is tried again at the next minute');
   let task: ReturnType<typeof cron.schedule> | undefined;
   if (config.PLANKTIDE_SCHEDULER === 'on') {
     task = cron.schedule(
@@ -65,7 +76,8 @@ export async function startForecastServices(deps: {
         const now = Date.now();
         const queued = await schedulerTick({ db, boss }, now).catch((error: unknown) => (logger.error({ err: error }, 'scheduler tick failed'), 0));
         if (queued) logger.info({ queued }, 'scheduled site forecasts queued');
-        await sendDueDigests({ db, mailer: deps.mailer, appBaseUrl: config.APP_BASE_URL }, now).catch((error: unknown) => logger.error({ err: error }, 'digest mail failed'));
+        await sendDueDigests({ db, mailer: deps.mailer, appBaseUrl: config.APP_BASE_URL, onMailFailed }, now).catch((error: unknown) => logger.error({ err: error }, 'digest mail failed'));
+        await retryAlertMails({ db, mailer: deps.mailer, appBaseUrl: config.APP_BASE_URL, onMailFailed }, now).catch((error: unknown) => logger.error({ err: error }, 'alert mail retry failed'));
         if (new Date(now).getUTCMinutes() === 17) {
           const pruned = await pruneForecasts(db, now).catch((error: unknown) => (logger.error({ err: error }, 'forecast retention failed'), 0));
           if (pruned) logger.info({ pruned }, 'old forecasts deleted');

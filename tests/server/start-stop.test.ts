@@ -1,4 +1,4 @@
-import { existsSync, readFileSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import path from 'node:path';
 import pg from 'pg';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
@@ -17,6 +17,24 @@ function alive(pid: number): boolean {
   } catch {
     return false;
   }
+}
+
+/** The worker processes started by the product (children running jobs/worker.ts), with their nice values. */
+function workerNiceValues(parentPid: number): number[] {
+  const values: number[] = [];
+  for (const entry of readdirSync('/proc').filter((name) => /^\d+$/.test(name))) {
+    try {
+      const stat = readFileSync(`/proc/${entry}/stat`, 'utf8');
+      // proc(5): after "(comm)", field 4 is the parent pid and field 19 the nice value.
+      const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
+      if (Number(fields[1]) !== parentPid) continue;
+      if (!readFileSync(`/proc/${entry}/cmdline`, 'utf8').includes('jobs/worker.ts')) continue;
+      values.push(Number(fields[16]));
+    } catch {
+      // the process ended while we looked
+    }
+  }
+  return values;
 }
 
 async function organisationIds(pgPort: string): Promise<{ id: string }[]> {
@@ -45,6 +63,9 @@ describe('npm start on a fresh data folder', () => {
     const page = await fetch(`${first.baseUrl}/sites/anything`);
     expect(page.status).toBe(200);
     expect(await page.text()).toContain('<div id="root"></div>');
+
+    // Forecast workers run beside the web server at a lower CPU priority (PLANKTIDE_WORKER_NICE, default 10).
+    expect(workerNiceValues(first.child.pid!)).toEqual([10]);
 
     const orgsBefore = await organisationIds(env.PLANKTIDE_PG_PORT!);
     expect(orgsBefore).toHaveLength(1);
