@@ -36,7 +36,13 @@ const stop = await startForecastWorker({
   tides: siteTideSource({ db, feed }),
   logger,
   resolution: { layers: config.FORECAST_LAYERS, timeStepS: config.FORECAST_TIME_STEP_S },
-  onStored: notifyOnStored({ db, mailer: createMailer(config.SMTP_URL ?? `smtp://127.0.0.1:${config.SMTP_STANDIN_PORT}`, config.MAIL_FROM), appBaseUrl: config.APP_BASE_URL }),
+  onStored: notifyOnStored({
+    db,
+    mailer: createMailer(config.SMTP_URL ?? `smtp://127.0.0.1:${config.SMTP_STANDIN_PORT}`, config.MAIL_FROM, { timeoutMs: config.SMTP_TIMEOUT_MS }),
+    appBaseUrl: config.APP_BASE_URL,
+    onMailFailed: (to, error) => logger.warn({ err: error, to }, 'alert mail could not be sent now; the scheduler tries again'),
+  }),
+  onStoredFailed: (forecastId, error) => logger.error({ err: error, forecastId }, 'alerts after a stored forecast failed'),
 });
 logger.info('worker ready');
 console.log(`[planktide] worker ready (pid ${process.pid})`);

@@ -120,7 +120,7 @@ async function main(): Promise<void> {
       services.smtp = await startSmtpStandIn(config.SMTP_STANDIN_PORT);
       smtpUrl = services.smtp.url;
     }
-    mailer = createMailer(smtpUrl, config.MAIL_FROM);
+    mailer = createMailer(smtpUrl, config.MAIL_FROM, { timeoutMs: config.SMTP_TIMEOUT_MS });
 
     let issuer = config.OIDC_ISSUER_URL;
     if (!issuer) {

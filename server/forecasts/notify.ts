@@ -8,6 +8,69 @@ export interface NotifyDeps {
   db: Db;
   mailer?: Mailer;
   appBaseUrl: string;
+  /** Told of each alert mail that could not be sent now (it is tried again by retryAlertMails). */
+  onMailFailed?: (to: string, error: unknown) => void;
+}
+
+/** Alerts younger than this whose mail could not be sent are tried again. */
+const ALERT_MAIL_RETRY_MS = 24 * 3_600_000;
+
+/**
+ * Mails an alert to each member of its organisation who wants alerts and has not had it yet. Safe to
+ * call again: each mail is claimed in mail_log in the same transaction that sends it, so a mail that
+ * could not be sent (mail service down or slow) stays unclaimed for the next try, and one that was
+ * sent is never sent twice. Returns how many were sent.
+ */
+export async function mailAlert(deps: NotifyDeps, alertId: string): Promise<number> {
+  if (!deps.mailer) return 0;
+  const mailer = deps.mailer;
+  const alert = await deps.db
+    .selectFrom('alerts as a')
+    .innerJoin('sites as s', 's.id', 'a.site_id')
+    .select(['a.id', 'a.organisation_id', 'a.message', 's.name'])
+    .where('a.id', '=', alertId)
+    .executeTakeFirst();
+  if (!alert) return 0;
+  const members = await deps.db.selectFrom('memberships as m').innerJoin('users as u', 'u.id', 'm.user_id').select(['u.id', 'u.email']).where('m.organisation_id', '=', alert.organisation_id).execute();
+  let sent = 0;
+  for (const member of members) {
+    const settings = await mailSettingsOf(deps.db, member.id);
+    if (!settings.alertsEnabled) continue;
+    try {
+      const didSend = await deps.db.transaction().execute(async (trx) => {
+        const claimed = await trx
+          .insertInto('mail_log')
+          .values({ user_id: member.id, kind: 'alert', dedupe_key: `alert:${alert.id}:${member.id}` })
+          .onConflict((oc) => oc.column('dedupe_key').doNothing())
+          .returning('id')
+          .executeTakeFirst();
+        if (!claimed) return false;
+        await mailer.send({
+          to: member.email,
+          subject: `Planktide alert: ${alert.name}`,
+          text: `${alert.message}\n\nOpen Planktide: ${deps.appBaseUrl}/\nUnsubscribe: ${deps.appBaseUrl}/api/mail/unsubscribe/${settings.unsubscribeToken}`,
+        });
+        return true;
+      });
+      if (didSend) sent++;
+    } catch (error) {
+      deps.onMailFailed?.(member.email, error);
+    }
+  }
+  return sent;
+}
+
+/** Each scheduler tick: sends the alert mail of the last day that could not be sent before. */
+export async function retryAlertMails(deps: NotifyDeps, nowMs: number): Promise<number> {
+  const recent = await deps.db
+    .selectFrom('alerts')
+    .select('id')
+    .where('created_at', '>', new Date(nowMs - ALERT_MAIL_RETRY_MS))
+    .where('acknowledged_at', 'is', null)
+    .execute();
+  let sent = 0;
+  for (const alert of recent) sent += await mailAlert(deps, alert.id);
+  return sent;
 }
 
 /**
@@ -34,25 +97,6 @@ export function notifyOnStored(deps: NotifyDeps): (forecastId: string) => Promis
       .values({ organisation_id: f.organisation_id, site_id: f.site_id, forecast_id: f.id, kind: 'gear_trigger', message, starts_at: new Date(first.startMs) })
       .returning('id')
       .executeTakeFirstOrThrow();
-    if (!deps.mailer) return;
-    const members = await deps.db.selectFrom('memberships as m').innerJoin('users as u', 'u.id', 'm.user_id').select(['u.id', 'u.email']).where('m.organisation_id', '=', f.organisation_id).execute();
-    for (const member of members) {
-      const settings = await mailSettingsOf(deps.db, member.id);
-      if (!settings.alertsEnabled) continue;
-      await deps.db.transaction().execute(async (trx) => {
-        const claimed = await trx
-          .insertInto('mail_log')
-          .values({ user_id: member.id, kind: 'alert', dedupe_key: `alert:${alert.id}:${member.id}` })
-          .onConflict((oc) => oc.column('dedupe_key').doNothing())
-          .returning('id')
-          .executeTakeFirst();
-        if (!claimed) return;
-        await deps.mailer!.send({
-          to: member.email,
-          subject: `Planktide alert: ${f.name}`,
-          text: `${message}\n\nOpen Planktide: ${deps.appBaseUrl}/\nUnsubscribe: ${deps.appBaseUrl}/api/mail/unsubscribe/${settings.unsubscribeToken}`,
-        });
-      });
-    }
+    await mailAlert(deps, alert.id);
   };
 }

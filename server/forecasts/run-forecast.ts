@@ -20,6 +20,8 @@ export interface ForecastJobDeps {
   resolution?: { layers: number; timeStepS: number };
   /** Called after a forecast is stored (alerts, mail). */
   onStored?: (forecastId: string) => Promise<void>;
+  /** Told when onStored fails: the forecast stays stored and its run done (default: ignored). */
+  onStoredFailed?: (forecastId: string, error: unknown) => void;
 }
 
 /** A failure that retrying cannot mend (bad inputs): the run is marked failed at once. */
@@ -142,7 +144,8 @@ export async function runForecastJob(deps: ForecastJobDeps, runId: string): Prom
       await trx.updateTable('forecast_runs').set({ status: 'done', progress: 1, finished_at: new Date() }).where('id', '=', runId).execute();
       return stored.id;
     });
-    await deps.onStored?.(forecastId);
+    // The forecast is stored: what follows (alerts, mail) must not make the run look unfinished.
+    await deps.onStored?.(forecastId).catch((error: unknown) => deps.onStoredFailed?.(forecastId, error));
     return 'done';
   } catch (error) {
     const message = error instanceof Error ? error.message : String(error);

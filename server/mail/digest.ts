@@ -18,6 +18,8 @@ export interface DigestDeps {
   db: Db;
   mailer: Mailer;
   appBaseUrl: string;
+  /** Told of each digest that could not be sent now; it stays due and is tried at the next tick. */
+  onMailFailed?: (to: string, error: unknown) => void;
 }
 
 interface SiteDigest {
@@ -118,22 +120,27 @@ export async function sendDueDigests(deps: DigestDeps, nowMs: number): Promise<n
       .where('a.acknowledged_at', 'is', null)
       .execute();
     const key = `digest:${user.id}:${now.toISODate()}`;
-    const didSend = await deps.db.transaction().execute(async (trx) => {
-      const claimed = await trx.insertInto('mail_log').values({ user_id: user.id, kind: 'digest', dedupe_key: key }).onConflict((oc) => oc.column('dedupe_key').doNothing()).returning('id').executeTakeFirst();
-      if (!claimed) return false;
-      const body = composeDigest({
-        name: user.display_name,
-        zone: settings.timeZone,
-        nowMs,
-        items,
-        alerts,
-        settingsUrl: `${deps.appBaseUrl}/account`,
-        unsubscribeUrl: `${deps.appBaseUrl}/api/mail/unsubscribe/${settings.unsubscribeToken}`,
+    try {
+      const didSend = await deps.db.transaction().execute(async (trx) => {
+        const claimed = await trx.insertInto('mail_log').values({ user_id: user.id, kind: 'digest', dedupe_key: key }).onConflict((oc) => oc.column('dedupe_key').doNothing()).returning('id').executeTakeFirst();
+        if (!claimed) return false;
+        const body = composeDigest({
+          name: user.display_name,
+          zone: settings.timeZone,
+          nowMs,
+          items,
+          alerts,
+          settingsUrl: `${deps.appBaseUrl}/account`,
+          unsubscribeUrl: `${deps.appBaseUrl}/api/mail/unsubscribe/${settings.unsubscribeToken}`,
+        });
+        await deps.mailer.send({ to: user.email, subject: `Planktide: your sites on ${now.toFormat('ccc d LLL')}`, ...body });
+        return true;
       });
-      await deps.mailer.send({ to: user.email, subject: `Planktide: your sites on ${now.toFormat('ccc d LLL')}`, ...body });
-      return true;
-    });
-    if (didSend) sent++;
+      if (didSend) sent++;
+    } catch (error) {
+      // Nothing was claimed: the digest stays due for the next tick.
+      deps.onMailFailed?.(user.email, error);
+    }
   }
   return sent;
 }
