@@ -1,5 +1,4 @@
 import { Router, type Request, type RequestHandler } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import {
   calibrationInputSchema,
@@ -15,6 +14,7 @@ import { ALL_ROLES, requireMember } from '../auth/authorize.ts';
 import { requireActiveSubscription } from '../billing/subscription-gate.ts';
 import type { Db } from '../db/connect.ts';
 import { AppError } from '../http/app-error.ts';
+import { csvText, csvUpload } from '../http/csv-upload.ts';
 import { validate } from '../http/validate.ts';
 import { acceptCalibration, discardCalibration, queueCalibration, runCalibration, toCalibrationDto, type CalibrationDeps } from './calibration.service.ts';
 import { darwinCoreLines } from './darwin-core.ts';
@@ -36,30 +36,6 @@ export interface LabDeps {
 
 const orgParams = z.object({ orgId: z.uuid() });
 const calibrationParams = z.object({ orgId: z.uuid(), calibrationId: z.uuid() });
-
-/** One CSV in the multipart field "file"; multer's own errors become API errors that say what to do. */
-function csvUpload(maxBytes: number): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 10, fieldSize: 20_000 } }).single('file');
-  return (req, res, next) => {
-    upload(req, res, (error: unknown) => {
-      if (!error) return next();
-      if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError('payload_too_large', `The file is larger than ${Math.round(maxBytes / 1_000_000)} MB. Split it into smaller files.`));
-        if (error.code === 'LIMIT_UNEXPECTED_FILE') return next(new AppError('bad_request', `Send one CSV file in the form field "file" (got field "${error.field ?? ''}").`));
-        return next(new AppError('bad_request', `The upload was refused: ${error.message}.`));
-      }
-      next(new AppError('bad_request', 'The upload could not be read as multipart/form-data. Send the CSV in the form field "file".'));
-    });
-  };
-}
-
-function csvText(req: Request): { text: string; fileName: string } {
-  const file = req.file;
-  if (!file) throw new AppError('bad_request', 'Attach the lab\'s CSV file as multipart/form-data in the form field "file".');
-  const text = file.buffer.toString('utf8');
-  if (text.includes('\u0000')) throw new AppError('validation_failed', `${file.originalname} is not a text file. Save it as CSV (comma-separated values, UTF-8).`);
-  return { text, fileName: file.originalname };
-}
 
 /** The form field "mapping": JSON of field → column name; absent means the suggested mapping. */
 function mappingField(body: unknown): ColumnMapping | null {
@@ -86,7 +62,7 @@ export function labRoutes(deps: LabDeps): Router {
   const readers = requireMember(db, ALL_ROLES);
   const scientists = requireMember(db, ['owner', 'manager', 'biologist']);
   const gate = deps.forecastGate ?? requireActiveSubscription(db);
-  const upload = csvUpload(deps.maxUploadBytes ?? 4_000_000);
+  const upload = csvUpload({ maxBytes: deps.maxUploadBytes ?? 4_000_000, fields: 10, fieldSize: 20_000, tooLarge: 'Split it into smaller files.' });
   const calibrationDeps: CalibrationDeps = {
     db,
     ...deps.calibration,
@@ -95,12 +71,12 @@ export function labRoutes(deps: LabDeps): Router {
   const orgOf = (req: Request) => req.membership!.organisationId;
 
   router.post('/lab/uploads/preview', scientists, validate({ params: orgParams }), upload, async (req, res) => {
-    const { text, fileName } = csvText(req);
+    const { text, fileName } = csvText(req, 'the lab\'s CSV file');
     res.json(await service.previewUpload(db, orgOf(req), fileName, text, mappingField(req.body)));
   });
 
   router.post('/lab/uploads', scientists, validate({ params: orgParams }), upload, async (req, res) => {
-    const { text, fileName } = csvText(req);
+    const { text, fileName } = csvText(req, 'the lab\'s CSV file');
     res.status(201).json(await service.importUpload(db, req.user!, orgOf(req), fileName, text, mappingField(req.body)));
   });
 

@@ -1,5 +1,4 @@
 import { Router, type RequestHandler } from 'express';
-import multer from 'multer';
 import { z } from 'zod';
 import {
   constituentTableFieldsSchema,
@@ -12,6 +11,7 @@ import {
 } from '../../shared/schemas/tides.schema.ts';
 import { ALL_ROLES, requireMember } from '../auth/authorize.ts';
 import { AppError } from '../http/app-error.ts';
+import { csvText, csvUpload } from '../http/csv-upload.ts';
 import { validate } from '../http/validate.ts';
 import { parseConstituentTable, parseRecord } from './tide-csv.ts';
 import { previewSet } from './tide-preview.ts';
@@ -31,37 +31,13 @@ const setParams = siteParams.extend({ setId: z.uuid() });
 
 const HOUR_MS = 3_600_000;
 
-/** One CSV in the multipart field "file"; multer's own errors become API errors that say what to do. */
-function csvUpload(maxBytes: number): RequestHandler {
-  const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: maxBytes, files: 1, fields: 20, fieldSize: 2000 } }).single('file');
-  return (req, res, next) => {
-    upload(req, res, (error: unknown) => {
-      if (!error) return next();
-      if (error instanceof multer.MulterError) {
-        if (error.code === 'LIMIT_FILE_SIZE') return next(new AppError('payload_too_large', `The file is larger than ${Math.round(maxBytes / 1_000_000)} MB. Split the record into shorter spans or thin it.`));
-        if (error.code === 'LIMIT_UNEXPECTED_FILE') return next(new AppError('bad_request', `Send one CSV file in the form field "file" (got field "${error.field ?? ''}").`));
-        return next(new AppError('bad_request', `The upload was refused: ${error.message}.`));
-      }
-      next(new AppError('bad_request', 'The upload could not be read as multipart/form-data. Send the CSV in the form field "file".'));
-    });
-  };
-}
-
-function csvText(req: Parameters<RequestHandler>[0]): { text: string; fileName: string } {
-  const file = req.file;
-  if (!file) throw new AppError('bad_request', 'Attach the CSV file as multipart/form-data in the form field "file".');
-  const text = file.buffer.toString('utf8');
-  if (text.includes('\u0000')) throw new AppError('validation_failed', `${file.originalname} is not a text file. Save it as CSV (comma-separated values, UTF-8).`);
-  return { text, fileName: file.originalname };
-}
-
 /** /api/orgs/:orgId/sites/:siteId/tides: everyone in the organisation reads; owners and managers change. */
 export function siteTideRoutes(deps: TidesDeps): Router {
   const { db } = deps;
   const router = Router({ mergeParams: true });
   const readers = requireMember(db, ALL_ROLES);
   const editors = requireMember(db, ['owner', 'manager']);
-  const upload = csvUpload(deps.maxUploadBytes ?? 8_000_000);
+  const upload = csvUpload({ maxBytes: deps.maxUploadBytes ?? 8_000_000, fields: 20, fieldSize: 2000, tooLarge: 'Split the record into shorter spans or thin it.' });
   // The site must belong to the caller's organisation (404 otherwise), checked before any upload is read.
   const site: RequestHandler = async (req, _res, next) => {
     const found = await repo.findTideSite(db, req.membership!.organisationId, String(req.params.siteId));

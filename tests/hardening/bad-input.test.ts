@@ -1,3 +1,6 @@
+import { mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { apiErrorSchema } from '../../shared/schemas/api-error.schema.ts';
 import type { Browser } from '../helpers/browser.ts';
@@ -60,13 +63,21 @@ describe('bad input: a clear 4xx naming what is wrong, and the database unchange
   let world: TeamWorld;
   let manager: Browser;
   let owner: Browser;
+  let tmp: string;
+  const tmpBefore = process.env.TMPDIR;
   beforeAll(async () => {
+    // Uploads must stay in memory: a folder of our own as the temporary folder, to find any file written.
+    tmp = mkdtempSync(path.join(os.tmpdir(), 'planktide-uploads-'));
+    process.env.TMPDIR = tmp;
     world = await startTeamWorld();
     manager = await world.as('managerA');
     owner = await world.as('ownerA');
   }, 60_000);
   afterAll(async () => {
     await world.close();
+    if (tmpBefore === undefined) delete process.env.TMPDIR;
+    else process.env.TMPDIR = tmpBefore;
+    rmSync(tmp, { recursive: true, force: true });
   });
 
   for (const c of UPLOADS) {
@@ -94,5 +105,15 @@ describe('bad input: a clear 4xx naming what is wrong, and the database unchange
     const answer = await owner.api(world.baseUrl, 'POST', `/orgs/${world.orgA}/sites`, { name: 'x'.repeat(1_100_000) });
     expect(answer.status).toBe(413);
     expect(await fingerprint(world.database.db)).toEqual(before);
+  });
+
+  it('keeps every upload in memory: nothing is written to the temporary folder', async () => {
+    const biologist = await world.as('biologistA');
+    const lab = await uploadCsv(biologist, world.baseUrl, `/orgs/${world.orgA}/lab/uploads/preview`, 'sample_id,sampled_at,depth_m,taxon,cells_per_l\nS1,2026-12-01T08:00:00Z,3,Alexandrium sp.,1200\n');
+    expect(lab.status).toBeLessThan(500);
+    const tides = await uploadCsv(manager, world.baseUrl, `/orgs/${world.orgA}/sites/${world.siteA}/tides/uploads/constituents`, 'constituent,amplitude_m,phase_deg\nM2,1.2,40\n');
+    expect(tides.status).toBeLessThan(500);
+    expect(os.tmpdir()).toBe(tmp);
+    expect(readdirSync(tmp)).toEqual([]);
   });
 });
